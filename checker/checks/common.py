@@ -1,0 +1,85 @@
+"""Small helpers the checks share: the model inputs a claim provides, and the
+way numbers are written in findings."""
+
+from __future__ import annotations
+
+import math
+
+from ..claim.model import Claim, Reported
+from ..metrics import METRICS, MetricModel, ModelInputs
+from ..stats.porter_thomas import dimension_of
+
+LN10 = math.log(10.0)
+
+
+def metric_of(claim: Claim) -> MetricModel:
+    return METRICS[claim.metric]
+
+
+def model_inputs(claim: Claim, sd: float | None = None) -> ModelInputs:
+    if sd is None and claim.sd is not None:
+        sd = claim.sd.value
+    return ModelInputs(dimension=dimension_of(claim.qubit_count) if claim.metric == "linear-xeb" else None,
+                       sd=sd)
+
+
+def count_for_error(claim: Claim) -> Reported | None:
+    """The N in sqrt(v / N) for this claim's metric (circuits for heavy output
+    when given, otherwise samples)."""
+    model = metric_of(claim)
+    if model.count_field == "circuits" and claim.circuits is not None:
+        return claim.circuits
+    return claim.samples
+
+
+def num(x: float | None, digits: int = 3) -> str:
+    """A number as findings print it: ``digits`` significant figures."""
+    if x is None:
+        return "n/a"
+    if not math.isfinite(x):
+        return "n/a"
+    if x == 0:
+        return "0"
+    text = f"{x:.{digits}g}"
+    if "e" in text:
+        mantissa, exponent = text.split("e")
+        return f"{mantissa}e{int(exponent)}"
+    return text
+
+
+def num_range(bounds: tuple[float, float], digits: int = 3) -> str:
+    lo, hi = bounds
+    a, b = num(lo, digits), num(hi, digits)
+    return a if a == b else f"{a} to {b}"
+
+
+def p_text(log_p: float, digits: int = 2) -> str:
+    """A p-value from its natural log, correct below the double-precision range."""
+    if log_p > -700:
+        return num(math.exp(log_p), digits)
+    log10 = log_p / LN10
+    exponent = math.floor(log10)
+    mantissa = 10 ** (log10 - exponent)
+    return f"{mantissa:.{digits - 1}f}e{exponent}"
+
+
+def p_range_text(log_bounds: tuple[float, float]) -> str:
+    a, b = p_text(log_bounds[0]), p_text(log_bounds[1])
+    return a if a == b else f"{a} to {b}"
+
+
+def log_bounds(rep: Reported) -> tuple[float, float]:
+    """Natural-log interval of a printed p-value ("< 0.001" runs down to 0)."""
+    low = math.log(rep.low) if rep.low > 0 else -math.inf
+    high = math.log(rep.high) if rep.high > 0 else -math.inf
+    return (low, high)
+
+
+def finite_or_none(x: float | None) -> float | None:
+    if x is None or not math.isfinite(x):
+        return None
+    return float(x)
+
+
+def convention_text(conv: dict) -> str:
+    return ", ".join(f"{k} {v}" for k, v in conv.items())

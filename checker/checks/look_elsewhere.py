@@ -1,0 +1,140 @@
+"""``look-elsewhere``: the global significance after looking at many
+configurations (or scanning a parameter) before reporting the best one.
+
+The local p-value is the printed one (or the printed sigma's, or else the
+recomputed one), so that this check stands apart from ``significance``.  With
+``trials`` the global p is Sidak's, with Bonferroni's bound beside it; with
+``upcrossings`` and ``upcrossing_sigma`` it is Gross and Vitells'.
+
+References
+----------
+Z. Sidak, J. Am. Stat. Assoc. 62, 626 (1967).
+E. Gross and O. Vitells, Eur. Phys. J. C 70, 525 (2010), arXiv:1005.1891.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Iterator
+
+from ..claim.model import Claim
+from ..report import Finding
+from ..stats.multiplicity import log_bonferroni, log_gross_vitells, log_sidak
+from ..stats.precision import agrees, over_box
+from ..stats.tails import log_p_from_sigma, sigma_from_log_p
+from .common import log_bounds, num, num_range, p_range_text
+from .significance import recompute, stated_convention
+
+
+def _local(claim: Claim):
+    """(log-p interval, sigma interval, where it came from) of the local significance."""
+    sig = claim.significance
+    sided = sig.sided
+    if sig.p_value is not None and 0 < sig.p_value.value <= 1:
+        lp = log_bounds(sig.p_value)
+        if lp[0] == -math.inf:
+            lp = (lp[1], lp[1])  # "p < x": take the bound, the claim's most favourable reading
+        sigma = tuple(sorted(sigma_from_log_p(x, sided) for x in lp))
+        return lp, sigma, "printed p_value"
+    if sig.sigma is not None:
+        sigma = sig.sigma.bounds
+        lp = tuple(sorted(log_p_from_sigma(z, sided) for z in sigma))
+        return lp, sigma, "printed sigma"
+    mine = recompute(claim, stated_convention(claim))
+    if mine is not None:
+        return mine.log_p, mine.sigma, "recomputed significance"
+    return None
+
+
+def _methods(claim: Claim, lp, sigma, sided):
+    """Global sigma intervals by method; the stated method first."""
+    sig = claim.significance
+    out = {}
+    if sig.upcrossings is not None and sig.upcrossing_sigma is not None:
+        n0, c0 = sig.upcrossings.bounds, sig.upcrossing_sigma.value
+
+        def gv(z, n, s=sided):
+            return log_gross_vitells(log_p_from_sigma(z, s), z, n, c0)
+
+        for s in (sided, "two" if sided == "one" else "one"):
+            glp = over_box(lambda z, n: gv(z, n, s), [sigma, n0])
+            out[("gross-vitells", s)] = (glp, tuple(sorted(sigma_from_log_p(x, s) for x in glp)))
+    if claim.trials is not None:
+        n = claim.trials.value
+        for name, fn in (("sidak", log_sidak), ("bonferroni", log_bonferroni)):
+            for s in (sided, "two" if sided == "one" else "one"):
+                # Convert the printed local significance under sidedness s.
+                local = tuple(sorted(log_p_from_sigma(z, s) for z in sigma))
+                glp = tuple(sorted(fn(x, n) for x in local))
+                out[(name, s)] = (glp, tuple(sorted(sigma_from_log_p(x, s) for x in glp)))
+    out[("none", sided)] = (lp, sigma)
+    return out
+
+
+def check(claim: Claim) -> Iterator[Finding]:
+    sig = claim.significance
+    if claim.trials is None and sig.upcrossings is None:
+        yield Finding("skip", "No look-elsewhere correction to check; needs trials or upcrossings.",
+                      details={"missing": ["trials", "upcrossings"]})
+        return
+    if sig.upcrossings is not None and sig.upcrossing_sigma is None:
+        yield Finding("skip", "Upcrossings are given without the reference level; needs "
+                      "significance.upcrossing_sigma.", details={"missing": ["significance.upcrossing_sigma"]})
+        if claim.trials is None:
+            return
+    local = _local(claim)
+    if local is None:
+        yield Finding("skip", "No local significance to correct; needs significance.sigma or p_value "
+                      "(or threshold and errors).", details={"missing": ["significance.sigma"]})
+        return
+    lp, sigma, origin = local
+    sided = sig.sided
+    methods = _methods(claim, lp, sigma, sided)
+    primary = ("gross-vitells", sided) if ("gross-vitells", sided) in methods else ("sidak", sided)
+    glp, gsigma = methods[primary]
+    tol = claim.tolerance
+    label = {"gross-vitells": "Gross-Vitells", "sidak": "Sidak", "bonferroni": "Bonferroni", "none": "no correction"}
+    how = (f"{num(sig.upcrossings.value)} upcrossings at {num(sig.upcrossing_sigma.value)} sigma"
+           if primary[0] == "gross-vitells" else f"{int(claim.trials.value)} trials")
+    trials_factor = math.exp(glp[1] - lp[1]) if lp[1] > -math.inf else None
+    details = {"method": primary[0], "sided": sided, "local_from": origin,
+               "local_sigma_low": sigma[0], "local_sigma_high": sigma[1],
+               "global_sigma_low": gsigma[0], "global_sigma_high": gsigma[1],
+               "log10_global_p_high": glp[1] / math.log(10), "trials_factor": trials_factor,
+               "tolerance": tol}
+    if ("bonferroni", sided) in methods:
+        details["bonferroni_sigma_low"] = methods[("bonferroni", sided)][1][0]
+    mid = (gsigma[0] + gsigma[1]) / 2
+    summary = (f"local {num_range(sigma)} sigma ({origin}) with {how} is global "
+               f"{num_range(gsigma)} sigma (p = {p_range_text(glp)}, {label[primary[0]]}, {sided}-sided)")
+    if sig.global_sigma is not None:
+        printed = sig.global_sigma
+        if agrees(printed.bounds, gsigma, tol):
+            yield Finding("pass", f"Printed global {printed.text} sigma agrees: {summary}.",
+                          reported=printed.value, recomputed=mid, details=details)
+        else:
+            other = next(((m, s) for (m, s), (_, gs) in methods.items()
+                          if (m, s) != primary and agrees(printed.bounds, gs, tol)), None)
+            if other is not None:
+                reproduce = {"method": other[0]}
+                if other[1] != sided:
+                    reproduce["sided"] = other[1]
+                tail = (f"; the printed value is what {label[other[0]]}"
+                        f"{' (' + other[1] + '-sided)' if other[1] != sided else ''} gives"
+                        if other[0] != "none" else "; the printed value is the local one, uncorrected")
+            else:
+                reproduce, tail = None, "; no method reproduces it"
+            yield Finding("fail", f"Printed global {printed.text} sigma, but {summary}{tail}.",
+                          reported=printed.value, recomputed=mid, reproduced_by=reproduce, details=details)
+    if sig.required_sigma is not None:
+        need = sig.required_sigma.value
+        if gsigma[1] * (1 + tol) < need:
+            yield Finding("fail", f"After the look-elsewhere correction the claim reaches "
+                          f"{num_range(gsigma)} sigma, below the required {sig.required_sigma.text}: {summary}.",
+                          reported=need, recomputed=mid, details={**details, "required": need})
+        elif sig.global_sigma is None:
+            yield Finding("pass", f"The global significance clears the required "
+                          f"{sig.required_sigma.text} sigma: {summary}.", reported=need, recomputed=mid,
+                          details={**details, "required": need})
+    elif sig.global_sigma is None:
+        yield Finding("pass", f"No global significance is printed; {summary}.", recomputed=mid, details=details)

@@ -1,0 +1,237 @@
+"""``significance``: z and p from the estimate, the threshold and the errors.
+
+Three comparisons, each under the conventions the claim states and, when the
+print disagrees, under every other convention, so the finding can say which
+one reproduces it:
+
+1. the printed sigma against the printed p-value (a sigma <-> p conversion);
+2. the printed sigma against the z recomputed from estimate, threshold, errors;
+3. the printed p against the recomputed p (compared as p-values, in log space).
+
+The recomputed sigma is then held against ``required_sigma``.
+
+References
+----------
+Particle Data Group, Review of Particle Physics, chapter "Statistics".
+R. D. Cousins and V. L. Highland, Nucl. Instrum. Meth. A 320, 331 (1992).
+"""
+
+from __future__ import annotations
+
+import itertools
+import math
+from dataclasses import dataclass
+from typing import Iterator
+
+from ..claim.model import Claim, Reported
+from ..report import Finding
+from ..stats.interval import sigma_from_interval
+from ..stats.precision import agrees, agrees_log, over_box
+from ..stats.systematics import log_p_marginalized
+from ..stats.tails import log_p_from_sigma, sigma_from_log_p
+from .common import (convention_text, count_for_error, finite_or_none, log_bounds, metric_of,
+                     model_inputs, num, num_range, p_range_text, p_text)
+
+KEYS = ("sided", "systematics", "error_at")
+
+
+@dataclass(frozen=True)
+class Recomputed:
+    convention: dict
+    sigma: tuple[float, float]
+    log_p: tuple[float, float]
+
+
+def stated_convention(claim: Claim) -> dict:
+    s = claim.significance
+    return {"sided": s.sided, "systematics": s.systematics, "error_at": s.error_at}
+
+
+def statistical_error(claim: Claim) -> tuple[tuple[float, float] | None, str]:
+    """The statistical error's interval and where it came from."""
+    if claim.stat_error is not None:
+        return claim.stat_error.bounds, "stat_error"
+    if claim.interval is not None:
+        iv = claim.interval
+        box = over_box(lambda lo, hi: sigma_from_interval(lo, hi, iv.level.value),
+                       [iv.low.bounds, iv.high.bounds])
+        if math.isfinite(box[0]) and box[0] > 0:
+            return box, "interval"
+    return None, ""
+
+
+def _conventions(claim: Claim) -> list[dict]:
+    """Every convention the claim's inputs can express, the stated one first and
+    the rest by how many choices they change."""
+    stated = stated_convention(claim)
+    systematics = ["none", "quadrature", "marginalized"] if claim.syst_error else ["none"]
+    error_at = ["estimate"]
+    model = metric_of(claim)
+    if count_for_error(claim) is not None and not model.needs():
+        error_at.append("threshold")
+    options = [dict(zip(KEYS, combo)) for combo in
+               itertools.product(("one", "two"), systematics, error_at)]
+    if stated not in options:
+        options.append(stated)
+    options.sort(key=lambda c: sum(c[k] != stated[k] for k in KEYS))
+    return options
+
+
+def recompute(claim: Claim, convention: dict) -> Recomputed | None:
+    """z and log p over the box of the printed inputs, under one convention."""
+    if claim.threshold is None:
+        return None
+    t = claim.threshold.value
+    sided, systematics, error_at = (convention[k] for k in KEYS)
+    syst = claim.syst_error.bounds if (claim.syst_error and systematics != "none") else (0.0, 0.0)
+    if error_at == "threshold":
+        n = count_for_error(claim)
+        if n is None:
+            return None
+        model = metric_of(claim)
+        inputs = model_inputs(claim)
+        stat = over_box(lambda count: model.standard_error(t, count, inputs), [n.bounds])
+    else:
+        stat, _ = statistical_error(claim)
+        if stat is None:
+            return None
+    if not (math.isfinite(stat[0]) and stat[0] > 0):
+        return None
+
+    def z_of(e, s, ss):
+        return (e - t) / math.hypot(s, ss)
+
+    def log_p_of(e, s, ss):
+        if systematics == "marginalized" and ss > 0:
+            d = e - t
+            if sided == "two":
+                return min(0.0, math.log(2.0) + log_p_marginalized(abs(d), s, ss))
+            return log_p_marginalized(d, s, ss)
+        return log_p_from_sigma(z_of(e, s, ss), sided)
+
+    boxes = [claim.estimate.bounds, stat, syst]
+    log_p = over_box(log_p_of, boxes)
+    if systematics == "marginalized":
+        sigma = tuple(sorted(sigma_from_log_p(lp, sided) for lp in log_p))
+        if sided == "one" and claim.estimate.value < t:
+            sigma = tuple(sorted(sigma))
+    else:
+        sigma = over_box(z_of, boxes)
+        if sided == "two":
+            sigma = tuple(sorted(abs(x) for x in sigma)) if sigma[0] * sigma[1] > 0 else (0.0, max(map(abs, sigma)))
+    return Recomputed(convention, sigma, log_p)
+
+
+def _differs(conv: dict, stated: dict) -> dict:
+    return {k: conv[k] for k in KEYS if conv[k] != stated[k]}
+
+
+def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
+    sig = claim.significance
+    sigma, p = sig.sigma, sig.p_value
+    if sigma is None or p is None:
+        return
+    if p.value <= 0 or p.value > 1:
+        return  # bounds reports it
+    printed_log = log_bounds(p)
+
+    def implied(sided):
+        return over_box(lambda z: log_p_from_sigma(z, sided), [sigma.bounds])
+
+    stated = implied(sig.sided)
+    details = {"sided": sig.sided, "p_from_sigma_low": math.exp(stated[0]) if stated[0] > -700 else 0.0,
+               "log10_p_from_sigma": stated[1] / math.log(10), "tolerance": tol}
+    base = f"Printed {sigma.text} sigma is p = {p_range_text(stated)} {sig.sided}-sided"
+    if agrees_log(printed_log, stated, tol):
+        yield Finding("pass", f"{base}, matching the printed p = {p.text}.",
+                      reported=p.value, recomputed=math.exp(stated[1]), details=details)
+        return
+    other = "two" if sig.sided == "one" else "one"
+    if agrees_log(printed_log, implied(other), tol):
+        yield Finding("fail", f"{base}, but the printed p = {p.text} is the {other}-sided value.",
+                      reported=p.value, recomputed=finite_or_none(math.exp(stated[1])),
+                      reproduced_by={"sided": other}, details=details)
+        return
+    inverse = over_box(lambda lp: sigma_from_log_p(lp, sig.sided), [printed_log]) if printed_log[0] > -math.inf \
+        else (sigma_from_log_p(printed_log[1], sig.sided), math.inf)
+    yield Finding("fail", f"{base}, but the printed p = {p.text}, which would be "
+                  f"{num_range(inverse, 3) if math.isfinite(inverse[1]) else 'at least ' + num(inverse[0])} sigma; "
+                  "no sidedness reconciles them.",
+                  reported=p.value, recomputed=finite_or_none(math.exp(stated[1])), details=details)
+
+
+def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
+    sig = claim.significance
+    stated = stated_convention(claim)
+    conventions = _conventions(claim)
+    results = [r for r in (recompute(claim, c) for c in conventions) if r is not None]
+    mine = next((r for r in results if r.convention == stated), None)
+    if mine is None:
+        missing = []
+        if claim.threshold is None:
+            missing.append("threshold")
+        if statistical_error(claim)[0] is None and stated["error_at"] == "estimate":
+            missing.append("stat_error (or interval)")
+        if stated["error_at"] == "threshold" and count_for_error(claim) is None:
+            missing.append(metric_of(claim).count_field)
+        yield Finding("skip", f"Cannot recompute the significance; needs {' and '.join(missing) or 'more inputs'}.",
+                      details={"missing": missing})
+        return
+    conv_words = convention_text({k: stated[k] + ("" if k in sig.stated else " (default)") for k in KEYS})
+    details = {"convention": stated, "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
+               "log10_p_low": mine.log_p[0] / math.log(10), "log10_p_high": mine.log_p[1] / math.log(10),
+               "tolerance": tol}
+    sigma_mid = (mine.sigma[0] + mine.sigma[1]) / 2
+    if sig.sigma is not None:
+        if agrees(sig.sigma.bounds, mine.sigma, tol):
+            yield Finding("pass", f"Printed {sig.sigma.text} sigma agrees with the {num_range(mine.sigma)} "
+                          f"recomputed from estimate, threshold and errors ({conv_words}).",
+                          reported=sig.sigma.value, recomputed=sigma_mid, details={**details, "quantity": "sigma"})
+        else:
+            other = next((r for r in results if r is not mine and agrees(sig.sigma.bounds, r.sigma, tol)), None)
+            tail = (f"; it would follow with {convention_text(_differs(other.convention, stated))}"
+                    if other else "; no convention reproduces it")
+            yield Finding("fail", f"Printed {sig.sigma.text} sigma, but estimate, threshold and errors give "
+                          f"{num_range(mine.sigma)} sigma ({conv_words}){tail}.",
+                          reported=sig.sigma.value, recomputed=sigma_mid,
+                          reproduced_by=_differs(other.convention, stated) if other else None,
+                          details={**details, "quantity": "sigma"})
+    if sig.p_value is not None and 0 < sig.p_value.value <= 1:
+        printed = log_bounds(sig.p_value)
+        p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
+        if agrees_log(printed, mine.log_p, tol):
+            yield Finding("pass", f"Printed p = {sig.p_value.text} agrees with the recomputed "
+                          f"p = {p_range_text(mine.log_p)} ({conv_words}).",
+                          reported=sig.p_value.value, recomputed=p_mid, details={**details, "quantity": "p_value"})
+        else:
+            other = next((r for r in results if r is not mine and agrees_log(printed, r.log_p, tol)), None)
+            tail = (f"; it would follow with {convention_text(_differs(other.convention, stated))}"
+                    if other else "; no convention reproduces it")
+            yield Finding("fail", f"Printed p = {sig.p_value.text}, but estimate, threshold and errors give "
+                          f"p = {p_range_text(mine.log_p)} ({conv_words}){tail}.",
+                          reported=sig.p_value.value, recomputed=p_mid,
+                          reproduced_by=_differs(other.convention, stated) if other else None,
+                          details={**details, "quantity": "p_value"})
+    if sig.sigma is None and sig.p_value is None:
+        yield Finding("pass", f"No significance is printed; estimate, threshold and errors give "
+                      f"{num_range(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
+                      recomputed=sigma_mid, details={**details, "quantity": "sigma"})
+    if sig.required_sigma is not None:
+        need = sig.required_sigma.value
+        facts = {**details, "quantity": "required_sigma", "required": need}
+        if mine.sigma[1] * (1 + tol) < need:
+            yield Finding("fail", f"Recomputed {num_range(mine.sigma)} sigma falls short of the required "
+                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts)
+        elif mine.sigma[0] < need:
+            yield Finding("warn", f"Recomputed {num_range(mine.sigma)} sigma reaches the required "
+                          f"{sig.required_sigma.text} sigma only within printed precision.",
+                          reported=need, recomputed=sigma_mid, details=facts)
+        else:
+            yield Finding("pass", f"Recomputed {num_range(mine.sigma)} sigma clears the required "
+                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts)
+
+
+def check(claim: Claim) -> Iterator[Finding]:
+    tol = claim.tolerance
+    found = list(_sigma_vs_p(claim, tol)) + list(_against_recomputed(claim, tol))
+    yield from found

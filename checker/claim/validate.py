@@ -1,0 +1,151 @@
+"""Validate a loaded document against schemas/claim.schema.json and turn the
+first problem into one line a person can act on."""
+
+from __future__ import annotations
+
+import difflib
+import functools
+import json
+import re
+from pathlib import Path
+
+from ..errors import ClaimSchemaError
+from .load import Document, dotted
+
+SCHEMA_PATH = Path(__file__).resolve().parent.parent / "data" / "claim.schema.json"
+
+_OCTAL = re.compile(r"^[+-]?0[0-9]+$")
+_SEXAGESIMAL = re.compile(r"^[+-]?[0-9]+(:[0-5]?[0-9])+(\.[0-9]*)?$")
+_HEX = re.compile(r"^[+-]?0[xXoObB][0-9a-fA-F]+$")
+_YAML11_BOOL = {"yes", "no", "on", "off", "y", "n"}
+_NONFINITE = {".nan", "nan", ".inf", "inf", "+.inf", "-.inf", "infinity", "-infinity", "+inf", "-inf"}
+
+
+@functools.lru_cache(maxsize=1)
+def claim_schema() -> dict:
+    with open(SCHEMA_PATH, encoding="utf-8") as handle:
+        return json.load(handle)
+
+
+@functools.lru_cache(maxsize=1)
+def _validator():
+    from jsonschema import Draft202012Validator
+
+    return Draft202012Validator(claim_schema())
+
+
+def validate_document(doc: Document) -> None:
+    """Raise ClaimSchemaError for the first (earliest in the file) problem."""
+    errors = list(_validator().iter_errors(doc.data))
+    if not errors:
+        return
+    errors.sort(key=lambda e: (doc.line_of(tuple(e.absolute_path)) or 0, len(e.absolute_path)))
+    err = errors[0]
+    path = tuple(err.absolute_path)
+    problem, allowed = describe(err, doc)
+    raise ClaimSchemaError(doc.file, problem, allowed, path=dotted(path) or "(top level)",
+                           line=doc.line_of(path))
+
+
+def _number_advice(text: str) -> str | None:
+    """Why a text that looks numeric is refused, for the YAML 1.1 surprises."""
+    t = text.strip()
+    low = t.lower()
+    if _OCTAL.match(t):
+        return (f"{t} has a leading zero, which YAML 1.1 reads as an octal number "
+                f"({int(t, 8) if set(t.lstrip('+-')) <= set('01234567') else 'not a number'})",
+                "write the number without leading zeros")
+    if _SEXAGESIMAL.match(t):
+        return (f"{t} would be read by YAML 1.1 as a base-60 number",
+                "write a plain decimal number")
+    if _HEX.match(t):
+        return (f"{t} is written in base 16, 8 or 2", "write a plain decimal number")
+    if "_" in t and re.fullmatch(r"[+-]?[0-9_.eE+-]+", t):
+        return (f"{t} uses underscores, which YAML 1.1 silently drops",
+                "write the digits without underscores")
+    if low in _YAML11_BOOL:
+        return (f"{t} is a YAML 1.1 true/false word, not a number", "write a number")
+    if low in _NONFINITE:
+        return (f"{t} is not a finite number", "numbers must be finite: no NaN or infinity")
+    if "," in t and re.fullmatch(r"[+-]?[0-9,]+(\.[0-9]*)?", t):
+        return (f"{t} uses thousands separators", "write the digits without commas")
+    return None
+
+
+def _text_at(doc: Document, path) -> str | None:
+    return doc.texts.get(tuple(path))
+
+
+def describe(err, doc: Document) -> tuple[str, str]:
+    """(what is wrong, what is allowed) for one jsonschema error."""
+    schema = err.schema
+    path = tuple(err.absolute_path)
+    text = _text_at(doc, path)
+    field = str(path[-1]) if path else "the claim"
+    validator = err.validator
+    if validator == "additionalProperties":
+        allowed_names = sorted(schema.get("properties", {}))
+        extra = sorted(set(err.instance) - set(allowed_names)) if isinstance(err.instance, dict) else []
+        name = extra[0] if extra else "?"
+        close = difflib.get_close_matches(name, allowed_names, n=1)
+        hint = f"did you mean {close[0]!r}? " if close else ""
+        where = f"{field}" if path else "a claim"
+        return (f"unknown field {name!r}",
+                f"{hint}allowed fields of {where}: {', '.join(allowed_names)}")
+    if validator == "required":
+        missing = re.findall(r"'([^']+)' is a required property", err.message)
+        name = missing[0] if missing else err.message
+        return (f"the required field {name!r} is missing",
+                f"{'a claim' if not path else field} needs {', '.join(schema.get('required', []))}")
+    if validator == "enum":
+        choices = " | ".join(str(c) for c in schema["enum"])
+        return (f"{field} is {err.instance!r}", f"allowed: {choices}")
+    if validator in ("anyOf", "oneOf"):
+        kinds = {s.get("type") for s in schema[validator]}
+        instance = err.instance
+        if "number" in kinds or "integer" in kinds:
+            counting = "integer" in kinds
+            if isinstance(instance, str):
+                advice = _number_advice(instance)
+                if advice:
+                    return advice
+            if isinstance(instance, bool):
+                return (f"{field} is {text or instance}, a true/false value", "write a number")
+            if counting and isinstance(instance, (int, float)):
+                return (f"{field} must be a whole number of at least 1, got {text or instance}",
+                        "counts are whole numbers such as 30 or 2.5e7")
+            if isinstance(instance, (int, float)):
+                low = next((s.get("minimum") for s in schema[validator] if "minimum" in s), None)
+                if low is not None:
+                    return (f"{field} must be at least {low}, got {text or instance}", "write a larger number")
+            shown = text if text is not None else json.dumps(instance)[:60]
+            what = "a whole number of at least 1" if counting else "a number"
+            return (f"{field} must be {what}, got {shown!r}",
+                    "write digits such as 2.24e-3, 0.0224 or 2.24%")
+    if validator == "type":
+        expected = schema.get("type")
+        shown = text if text is not None else json.dumps(err.instance)[:60]
+        if expected == "boolean":
+            return (f"{field} must be true or false, got {shown!r}", "write true or false")
+        if expected == "object":
+            return (f"{field} must be a mapping of fields, got {shown!r}",
+                    f"allowed fields: {', '.join(sorted(schema.get('properties', {})))}")
+        if expected == "array":
+            return (f"{field} must be a list, got {shown!r}", "write a list of entries, one per line with '- '")
+        if expected == "string":
+            return (f"{field} must be text, got {shown!r}", "write the text, quoted if it looks like a number")
+        return (f"{field} has the wrong kind of value ({shown!r})", f"expected {expected}")
+    if validator == "minItems":
+        return (f"{field} is empty", "give at least one entry or leave the field out")
+    if validator == "minLength":
+        return (f"{field} is empty", "write some text")
+    if validator == "minimum":
+        return (f"{field} must be at least {schema['minimum']}, got {text or err.instance}",
+                "write a larger number")
+    if validator == "pattern":
+        advice = _number_advice(str(err.instance))
+        if advice:
+            return advice
+        return (f"{field} must be a number, got {err.instance!r}",
+                "write digits such as 2.24e-3, 0.0224 or 2.24%")
+    return (f"{field}: {err.message}", "see `claimcheck schema`")

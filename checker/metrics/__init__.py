@@ -1,0 +1,18 @@
+"""Metric models, one file each; add a metric with one file and one line here."""
+
+from .base import MetricModel, ModelInputs
+from .heavy_output import HeavyOutput
+from .linear_xeb import LinearXEB
+from .log_xeb import LogXEB
+from .mean import Mean
+from .proportion import Proportion
+
+METRICS: dict[str, MetricModel] = {
+    "linear-xeb": LinearXEB(),
+    "log-xeb": LogXEB(),
+    "heavy-output": HeavyOutput(),
+    "proportion": Proportion(),
+    "mean": Mean(),
+}
+
+__all__ = ["METRICS", "MetricModel", "ModelInputs"]

@@ -1,0 +1,44 @@
+"""What every metric model provides: a per-sample variance, hence a standard
+error sqrt(v / N), and the physical range of its estimate."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class ModelInputs:
+    """What a metric model may need beyond the value itself."""
+
+    dimension: float | None = None  # Hilbert-space dimension D (xeb metrics)
+    sd: float | None = None  # per-sample standard deviation (metric mean)
+
+
+class MetricModel:
+    """Base class of the metric models; one subclass per file."""
+
+    name: str = ""
+    summary: str = ""
+    # Range the estimate can take at all, and whether leaving it is impossible
+    # (a proportion of 1.02) or only improbable (a noisy fidelity estimate of 1.02).
+    lowest: float = -math.inf
+    highest: float = math.inf
+    hard_bounds: bool = False
+    # The count N in sqrt(v / N): samples for most metrics, circuits for heavy output.
+    count_field: str = "samples"
+
+    def variance(self, value: float, inputs: ModelInputs) -> float | None:
+        """Per-sample variance at the given value; None when the model needs an
+        input the claim does not give."""
+        raise NotImplementedError
+
+    def standard_error(self, value: float, n: float, inputs: ModelInputs) -> float | None:
+        v = self.variance(value, inputs)
+        if v is None or n <= 0:
+            return None
+        return math.sqrt(v / n)
+
+    def needs(self) -> tuple[str, ...]:
+        """Claim fields the variance needs besides the estimate."""
+        return ()

@@ -1,0 +1,24 @@
+"""Heavy-output probability h: the fraction of samples whose ideal probability
+exceeds the median.  Ideal Porter-Thomas value (1 + ln 2)/2; the usual pass
+criterion is h - 2 sigma > 2/3 with sigma = sqrt(h (1 - h) / circuits).
+
+References
+----------
+A. W. Cross et al., "Validating quantum computers using randomized model
+circuits", Phys. Rev. A 100, 032328 (2019), arXiv:1811.12926.
+"""
+
+from ..stats.binomial import binomial_variance
+from .base import MetricModel, ModelInputs
+
+
+class HeavyOutput(MetricModel):
+    name = "heavy-output"
+    summary = "heavy-output probability"
+    lowest = 0.0
+    highest = 1.0
+    hard_bounds = True
+    count_field = "circuits"
+
+    def variance(self, value: float, inputs: ModelInputs) -> float:
+        return binomial_variance(value)

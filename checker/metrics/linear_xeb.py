@@ -1,0 +1,23 @@
+"""Linear cross-entropy benchmarking: F = mean(D p) - 1.
+
+Var x = 1 + 2F - F^2 in the large-D limit; the exact finite-D moments of
+Porter-Thomas (Beta(1, D - 1)) statistics are used when ``qubits`` is given.
+
+References
+----------
+S. Boixo et al., Nature Physics 14, 595 (2018), arXiv:1608.00263.
+"""
+
+from ..stats.porter_thomas import linear_xeb_variance
+from .base import MetricModel, ModelInputs
+
+
+class LinearXEB(MetricModel):
+    name = "linear-xeb"
+    summary = "linear cross-entropy fidelity, mean(D p) - 1"
+    lowest = -1.0  # x = D p >= 0, so mean(x) - 1 >= -1
+    highest = 1.0
+    hard_bounds = False
+
+    def variance(self, value: float, inputs: ModelInputs) -> float:
+        return linear_xeb_variance(min(max(value, -1.0), 1.0), inputs.dimension)

@@ -1,0 +1,16 @@
+"""A sample mean with a printed per-sample standard deviation: se = sd / sqrt(N)."""
+
+from .base import MetricModel, ModelInputs
+
+
+class Mean(MetricModel):
+    name = "mean"
+    summary = "sample mean, sd / sqrt(N)"
+
+    def variance(self, value: float, inputs: ModelInputs) -> float | None:
+        if inputs.sd is None:
+            return None
+        return inputs.sd * inputs.sd
+
+    def needs(self) -> tuple[str, ...]:
+        return ("sd",)

@@ -1,0 +1,16 @@
+"""A proportion k/N (test accuracy, success probability, parity above 1/2):
+binomial variance p (1 - p)."""
+
+from ..stats.binomial import binomial_variance
+from .base import MetricModel, ModelInputs
+
+
+class Proportion(MetricModel):
+    name = "proportion"
+    summary = "binomial proportion k/N"
+    lowest = 0.0
+    highest = 1.0
+    hard_bounds = True
+
+    def variance(self, value: float, inputs: ModelInputs) -> float:
+        return binomial_variance(value)

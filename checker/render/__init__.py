@@ -1,0 +1,1 @@
+"""Renderers: pure functions Report -> str.  They never compute a statistic."""

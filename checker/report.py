@@ -1,0 +1,110 @@
+"""Findings and the report that collects them.
+
+A Finding is data: the check that made it, a status, one plain sentence, the
+value as printed, the value recomputed, and, when the print is off, the
+convention or method under which it would agree.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+from types import MappingProxyType
+from typing import Any, Mapping
+
+STATUSES = ("pass", "warn", "fail", "skip")
+
+
+def _frozen(mapping: Mapping[str, Any] | None) -> Mapping[str, Any]:
+    return MappingProxyType(dict(mapping or {}))
+
+
+@dataclass(frozen=True)
+class Finding:
+    """One statement about one number of a claim.
+
+    Parameters
+    ----------
+    status : str
+        ``pass``, ``warn``, ``fail`` or ``skip``.
+    message : str
+        One sentence: what was printed, what the inputs imply, and what would
+        reproduce the print.
+    reported, recomputed : float or None
+        The printed value and the value re-derived from the claim's inputs.
+    reproduced_by : mapping or None
+        The convention or method under which the printed value agrees.
+    details : mapping
+        Everything else worth keeping (ranges, tolerance, the part's label).
+    check : str
+        The check id; the runner fills it in.
+    """
+
+    status: str
+    message: str
+    reported: float | None = None
+    recomputed: float | None = None
+    reproduced_by: Mapping[str, Any] | None = None
+    details: Mapping[str, Any] = field(default_factory=dict)
+    check: str = ""
+
+    def __post_init__(self) -> None:
+        if self.status not in STATUSES:
+            raise ValueError(f"status must be one of {STATUSES}, got {self.status!r}")
+        object.__setattr__(self, "details", _frozen(self.details))
+        if self.reproduced_by is not None:
+            object.__setattr__(self, "reproduced_by", _frozen(self.reproduced_by))
+
+    def from_check(self, check: str) -> "Finding":
+        return replace(self, check=check)
+
+
+@dataclass(frozen=True)
+class Report:
+    """All findings for one claim, with the verdict they add up to."""
+
+    title: str
+    file: str
+    findings: tuple[Finding, ...]
+
+    @property
+    def verdict(self) -> str:
+        """``inconsistent`` if any check failed, ``incomplete`` if nothing could
+        be checked, otherwise ``consistent``."""
+        statuses = {f.status for f in self.findings}
+        if "fail" in statuses:
+            return "inconsistent"
+        if not statuses - {"skip"}:
+            return "incomplete"
+        return "consistent"
+
+    @property
+    def exit_status(self) -> int:
+        return 1 if self.verdict == "inconsistent" else 0
+
+    def counts(self) -> dict[str, int]:
+        return {s: sum(f.status == s for f in self.findings) for s in STATUSES}
+
+    def failed_checks(self) -> tuple[str, ...]:
+        seen: dict[str, None] = {}
+        for f in self.findings:
+            if f.status == "fail":
+                seen.setdefault(f.check, None)
+        return tuple(seen)
+
+    def to_frame(self):
+        """The findings as a pandas DataFrame, one row per finding."""
+        import pandas as pd  # heavy: only when asked for
+
+        rows = [
+            {"check": f.check, "status": f.status, "message": f.message,
+             "reported": f.reported, "recomputed": f.recomputed,
+             "reproduced_by": dict(f.reproduced_by) if f.reproduced_by else None,
+             **{f"details.{k}": v for k, v in f.details.items()}}
+            for f in self.findings
+        ]
+        return pd.DataFrame(rows)
+
+    def __str__(self) -> str:
+        from .render.text import render_text
+
+        return render_text(self)

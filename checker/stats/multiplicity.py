@@ -1,0 +1,58 @@
+"""Look-elsewhere corrections, in log-p so that tiny local p-values survive.
+
+References
+----------
+Z. Sidak, "Rectangular confidence regions for the means of multivariate normal
+distributions", J. Am. Stat. Assoc. 62, 626 (1967): p_global = 1 - (1 - p)^N.
+Bonferroni bound: p_global <= min(1, N p).
+E. Gross and O. Vitells, "Trial factors for the look elsewhere effect in high
+energy physics", Eur. Phys. J. C 70, 525 (2010), eq. (2) for one degree of
+freedom: p_global ~ p_local + N(c0) exp(-(c - c0)/2) with c = Z_local^2.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+
+def log_sidak(log_p: float, trials: float) -> float:
+    """log of 1 - (1 - p)^N, accurate from p = 1 down to log p beyond the float range."""
+    if trials < 1:
+        raise ValueError(f"trials must be at least 1, got {trials}")
+    if log_p >= 0.0:
+        return 0.0
+    p = math.exp(log_p)
+    if trials * p < 1e-12:
+        # 1 - (1 - p)^N = N p (1 - (N - 1) p / 2 + ...); the correction is below 1e-12.
+        return math.log(trials) + log_p + math.log1p(-(trials - 1) * p / 2)
+    return math.log(-math.expm1(trials * math.log1p(-p)))
+
+
+def log_bonferroni(log_p: float, trials: float) -> float:
+    """log of min(1, N p)."""
+    return min(0.0, math.log(trials) + log_p)
+
+
+def log_gross_vitells(log_p_local: float, z_local: float, upcrossings: float,
+                      reference_sigma: float) -> float:
+    """log of p_local + N0 exp(-(Z^2 - c0)/2), with c0 = reference_sigma^2.
+
+    Parameters
+    ----------
+    log_p_local : float
+        log of the local p-value, under the sidedness the claim states.
+    z_local : float
+        The local significance Z (c = Z^2).
+    upcrossings : float
+        N0, the mean number of upcrossings of the scan at level c0.
+    reference_sigma : float
+        The reference level in sigma; c0 = reference_sigma ** 2.
+    """
+    c = z_local * z_local
+    c0 = reference_sigma * reference_sigma
+    if upcrossings <= 0:
+        return log_p_local
+    log_term = math.log(upcrossings) - (c - c0) / 2.0
+    return min(0.0, float(np.logaddexp(log_p_local, log_term)))

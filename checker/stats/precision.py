@@ -1,0 +1,140 @@
+"""Printed precision: a reported number is an interval, not a point.
+
+"2.24e-3" means [2.235e-3, 2.245e-3]; "4.2" means [4.15, 4.25]; "2e-10" means
+[1.5e-10, 2.5e-10]; "91.2%" means [0.9115, 0.9125].  A recomputed quantity is
+evaluated over the box of its inputs' intervals and agrees with a printed one
+when the two intervals are no further apart than ``tolerance`` times the
+printed value (common practice: half a unit in the last printed digit).
+"""
+
+from __future__ import annotations
+
+import itertools
+import math
+import re
+from dataclasses import dataclass
+from decimal import Decimal
+from typing import Callable, Sequence
+
+# Plain decimal notation with an optional exponent and an optional percent
+# sign.  No leading zeros before other digits (YAML 1.1 reads those as octal),
+# no underscores, no base-60, no hexadecimal.
+NUMBER_PATTERN = r"^[+-]?(0|[1-9][0-9]*)?(\.[0-9]*)?([eE][+-]?[0-9]+)?%?$"
+_NUMBER = re.compile(NUMBER_PATTERN)
+_HAS_DIGIT = re.compile(r"[0-9]")
+
+
+@dataclass(frozen=True)
+class Printed:
+    """A number as printed: its value and the interval its digits stand for."""
+
+    value: float
+    low: float
+    high: float
+    text: str
+
+    @property
+    def exact(self) -> bool:
+        return self.low == self.high
+
+    @property
+    def bounds(self) -> tuple[float, float]:
+        return (self.low, self.high)
+
+
+def is_number_text(text: str) -> bool:
+    """True when ``text`` is a number in the plain notation claimcheck reads."""
+    text = text.strip()
+    mantissa = text.split("e")[0].split("E")[0]
+    return bool(_NUMBER.match(text)) and bool(_HAS_DIGIT.search(mantissa))
+
+
+def parse_printed(text: str, exact: bool = False) -> Printed:
+    """Read a printed number and the interval its digits stand for.
+
+    Parameters
+    ----------
+    text : str
+        "2.24e-3", "4.2", "91.2%", "25000000", "3e6".
+    exact : bool
+        Definitions (thresholds, levels) and fully written counts are exact.
+
+    Returns
+    -------
+    Printed
+
+    Raises
+    ------
+    ValueError
+        When ``text`` is not a finite number in plain notation.
+    """
+    text = text.strip()
+    if not is_number_text(text):
+        raise ValueError(f"not a number: {text!r}")
+    percent = text.endswith("%")
+    body = text[:-1] if percent else text
+    dec = Decimal(body)
+    if not dec.is_finite():
+        raise ValueError(f"not a finite number: {text!r}")
+    value = float(dec) / 100.0 if percent else float(dec)
+    if not math.isfinite(value):
+        raise ValueError(f"not a finite number: {text!r}")
+    if exact:
+        return Printed(value, value, value, text)
+    # Half a unit in the last printed digit, exactly in decimal.
+    half = Decimal(5).scaleb(dec.as_tuple().exponent - 1)
+    if percent:
+        half /= 100
+        dec /= 100
+    low, high = float(dec - half), float(dec + half)
+    return Printed(value, min(low, high), max(low, high), text)
+
+
+def count_is_exact(text: str) -> bool:
+    """A count written with all its digits (no exponent, no point) is exact."""
+    return bool(re.fullmatch(r"[+-]?[0-9]+", text.strip()))
+
+
+def over_box(fn: Callable[..., float], boxes: Sequence[tuple[float, float]]) -> tuple[float, float]:
+    """The range of ``fn`` over the corners of a box of input intervals.
+
+    The formulas checked here are monotone in each input over the printed
+    interval, so the corners bound the range.  Non-finite corner values are
+    skipped; if every corner is non-finite the result is (nan, nan).
+    """
+    values = []
+    for corner in itertools.product(*[sorted(set(b)) for b in boxes]):
+        v = fn(*corner)
+        if v is not None and math.isfinite(v):
+            values.append(v)
+    if not values:
+        return (math.nan, math.nan)
+    return (min(values), max(values))
+
+
+def gap(a: tuple[float, float], b: tuple[float, float]) -> float:
+    """Distance between two intervals (0 when they meet)."""
+    return max(0.0, max(a[0], b[0]) - min(a[1], b[1]))
+
+
+def agrees(reported: tuple[float, float], recomputed: tuple[float, float], tolerance: float) -> bool:
+    """True when the intervals are no further apart than ``tolerance`` x the
+    printed value's magnitude."""
+    scale = max(abs(reported[0]), abs(reported[1]))
+    return gap(reported, recomputed) <= tolerance * scale
+
+
+def agrees_log(reported_log: tuple[float, float], recomputed_log: tuple[float, float],
+               tolerance: float) -> bool:
+    """Agreement of p-values compared as p-values: relative, in log space.
+
+    A factor of 2 in p is a sidedness slip at any sigma the printed digits can
+    resolve; comparing after a conversion to sigma would hide it beyond about
+    7 sigma.
+    """
+    return gap(reported_log, recomputed_log) <= math.log1p(tolerance)
+
+
+def relative_gap(reported: tuple[float, float], recomputed: tuple[float, float]) -> float:
+    scale = max(abs(reported[0]), abs(reported[1]))
+    return gap(reported, recomputed) / scale if scale > 0 else math.inf
