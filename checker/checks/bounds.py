@@ -11,7 +11,7 @@ from typing import Iterator
 
 from ..claim.model import Claim, Reported
 from ..report import Finding
-from .common import metric_of, num
+from .common import is_probability, metric_of, num
 
 NOISE_ALLOWANCE = 3.0  # standard errors a noisy fidelity estimate may exceed 1 by
 
@@ -73,7 +73,7 @@ def check(claim: Claim) -> Iterator[Finding]:
     p = claim.significance.p_value
     if p is not None:
         checked += 1
-        if p.value <= 0 or p.value > 1:
+        if not is_probability(p):
             found.append(Finding("fail", f"The p-value is printed as {p.text}; a p-value lies in (0, 1] "
                                  "(print a bound such as p < 1e-300 for one too small to write).",
                                  reported=p.value, details={"field": p.path}))

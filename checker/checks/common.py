@@ -70,9 +70,12 @@ def p_range_text(log_bounds: tuple[float, float]) -> str:
 
 def log_bounds(rep: Reported) -> tuple[float, float]:
     """Natural-log interval of a printed p-value ("< 0.001" runs down to 0)."""
-    low = math.log(rep.low) if rep.low > 0 else -math.inf
-    high = math.log(rep.high) if rep.high > 0 else -math.inf
-    return (low, high)
+    return (min(rep.log_low, 0.0), min(rep.log_high, 0.0))
+
+
+def is_probability(rep: Reported) -> bool:
+    """A printed p-value in (0, 1], judged in log space so 1e-400 counts."""
+    return rep.log_high > -math.inf and not math.isnan(rep.log_high) and rep.value <= 1.0
 
 
 def finite_or_none(x: float | None) -> float | None:
@@ -81,5 +84,18 @@ def finite_or_none(x: float | None) -> float | None:
     return float(x)
 
 
+_CONVENTION_WORDS = {
+    ("sided", "one"): "one-sided", ("sided", "two"): "two-sided",
+    ("systematics", "none"): "statistical error only",
+    ("systematics", "quadrature"): "systematic error added in quadrature",
+    ("systematics", "marginalized"): "systematic error marginalized",
+    ("error_at", "estimate"): "error taken at the estimate",
+    ("error_at", "threshold"): "error taken at the threshold",
+    ("method", "sidak"): "the Sidak correction", ("method", "bonferroni"): "the Bonferroni bound",
+    ("method", "gross-vitells"): "the Gross-Vitells correction", ("method", "none"): "no correction",
+}
+
+
 def convention_text(conv: dict) -> str:
-    return ", ".join(f"{k} {v}" for k, v in conv.items())
+    """Plain words for a convention: {"sided": "two"} -> "two-sided"."""
+    return ", ".join(_CONVENTION_WORDS.get((k, v), f"{k} {v}") for k, v in conv.items())

@@ -29,7 +29,7 @@ from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
-from .common import (convention_text, count_for_error, finite_or_none, log_bounds, metric_of,
+from .common import (convention_text, is_probability, count_for_error, finite_or_none, log_bounds, metric_of,
                      model_inputs, num, num_range, p_range_text, p_text)
 
 KEYS = ("sided", "systematics", "error_at")
@@ -131,7 +131,7 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
     sigma, p = sig.sigma, sig.p_value
     if sigma is None or p is None:
         return
-    if p.value <= 0 or p.value > 1:
+    if not is_probability(p):
         return  # bounds reports it
     printed_log = log_bounds(p)
 
@@ -177,8 +177,8 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         yield Finding("skip", f"Cannot recompute the significance; needs {' and '.join(missing) or 'more inputs'}.",
                       details={"missing": missing})
         return
-    conv_words = convention_text({k: stated[k] + ("" if k in sig.stated else " (default)") for k in KEYS})
-    details = {"convention": stated, "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
+    conv_words = convention_text(stated)
+    details = {"convention": stated, "stated": sorted(sig.stated), "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
                "log10_p_low": mine.log_p[0] / math.log(10), "log10_p_high": mine.log_p[1] / math.log(10),
                "tolerance": tol}
     sigma_mid = (mine.sigma[0] + mine.sigma[1]) / 2
@@ -196,7 +196,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                           reported=sig.sigma.value, recomputed=sigma_mid,
                           reproduced_by=_differs(other.convention, stated) if other else None,
                           details={**details, "quantity": "sigma"})
-    if sig.p_value is not None and 0 < sig.p_value.value <= 1:
+    if sig.p_value is not None and is_probability(sig.p_value):
         printed = log_bounds(sig.p_value)
         p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
         if agrees_log(printed, mine.log_p, tol):

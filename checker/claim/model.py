@@ -45,6 +45,8 @@ class Reported:
     text: str
     path: str = ""
     line: int | None = None
+    log_low: float = math.nan  # natural logs of low/high, exact beyond the double range
+    log_high: float = math.nan
 
     @property
     def bounds(self) -> tuple[float, float]:
@@ -60,7 +62,8 @@ class Reported:
 
     @classmethod
     def exact_value(cls, value: float, path: str = "") -> "Reported":
-        return cls(float(value), float(value), float(value), repr(value), path)
+        log_value = math.log(value) if value > 0 else (-math.inf if value == 0 else math.nan)
+        return cls(float(value), float(value), float(value), repr(value), path, None, log_value, log_value)
 
 
 @dataclass(frozen=True)
@@ -167,7 +170,8 @@ class _Builder:
         name = str(key)
         if text.startswith("<"):
             bound = self._parse(text[1:], path, name, exact=True)
-            return Reported(bound.value, 0.0, bound.value, text, dotted(path), self.doc.line_of(path))
+            return Reported(bound.value, 0.0, bound.value, text, dotted(path), self.doc.line_of(path),
+                            -math.inf, bound.log_high)
         counting = name in COUNT_FIELDS
         exact = path in EXACT_FIELDS or (counting and count_is_exact(text))
         printed = self._parse(text, path, name, exact)
@@ -175,7 +179,7 @@ class _Builder:
             self.fail(path, f"{name} must be a whole number of at least 1, got {text}",
                       "counts are whole numbers such as 30 or 2.5e7")
         return Reported(printed.value, printed.low, printed.high, text, dotted(path),
-                        self.doc.line_of(path))
+                        self.doc.line_of(path), printed.log_low, printed.log_high)
 
     def _parse(self, text, path, name, exact):
         try:

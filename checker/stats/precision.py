@@ -32,6 +32,11 @@ class Printed:
     low: float
     high: float
     text: str
+    # Natural logs of low and high, taken in decimal so that a printed
+    # "3e-400" keeps its size although it underflows a double; -inf for zero
+    # and nan for negative numbers.
+    log_low: float = math.nan
+    log_high: float = math.nan
 
     @property
     def exact(self) -> bool:
@@ -79,15 +84,23 @@ def parse_printed(text: str, exact: bool = False) -> Printed:
     value = float(dec) / 100.0 if percent else float(dec)
     if not math.isfinite(value):
         raise ValueError(f"not a finite number: {text!r}")
+    if percent:
+        dec /= 100
     if exact:
-        return Printed(value, value, value, text)
+        log_value = _decimal_log(dec)
+        return Printed(value, value, value, text, log_value, log_value)
     # Half a unit in the last printed digit, exactly in decimal.
-    half = Decimal(5).scaleb(dec.as_tuple().exponent - 1)
+    half = Decimal(5).scaleb(Decimal(body).as_tuple().exponent - 1)
     if percent:
         half /= 100
-        dec /= 100
-    low, high = float(dec - half), float(dec + half)
-    return Printed(value, min(low, high), max(low, high), text)
+    lo, hi = sorted((dec - half, dec + half))
+    return Printed(value, float(lo), float(hi), text, _decimal_log(lo), _decimal_log(hi))
+
+
+def _decimal_log(dec: Decimal) -> float:
+    if dec > 0:
+        return float(dec.ln())
+    return -math.inf if dec == 0 else math.nan
 
 
 def count_is_exact(text: str) -> bool:

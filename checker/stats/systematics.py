@@ -17,7 +17,6 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from scipy import integrate
 from scipy.special import log_ndtr
 
 
@@ -42,6 +41,9 @@ def log_p_marginalized(distance: float, stat_error: float, syst_error: float) ->
     """
     if syst_error <= 0.0:
         return float(log_ndtr(-distance / stat_error))
+    # Loaded here: only a claim that states `marginalized` pays for them.
+    from scipy import integrate
+    from scipy.optimize import minimize_scalar
 
     def log_integrand(delta: float) -> float:
         return (float(log_ndtr(-(distance - delta) / stat_error))
@@ -52,7 +54,6 @@ def log_p_marginalized(distance: float, stat_error: float, syst_error: float) ->
     # refine with a few Newton-free steps of a bounded search around it.
     total = stat_error * stat_error + syst_error * syst_error
     guess = distance * syst_error * syst_error / total
-    from scipy.optimize import minimize_scalar
 
     width = syst_error * stat_error / math.sqrt(total)
     res = minimize_scalar(lambda d: -log_integrand(d),
