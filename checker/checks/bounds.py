@@ -22,19 +22,21 @@ def _estimate_findings(claim: Claim, value: Reported, error: Reported | None,
     if value.high < model.lowest or value.low > model.highest:
         side, limit = ("above", model.highest) if value.low > model.highest else ("below", model.lowest)
         if model.hard_bounds:
-            yield Finding("fail", f"{what} {value.text} lies {side} {num(limit)}, which a "
-                          f"{model.summary} cannot do.", reported=value.value,
+            yield Finding("fail", f"{what} {value.text} lies {side} {num(limit)}, which "
+                          f"{model.noun} cannot do.", reported=value.value,
                           details={**details, "field": value.path, "limit": limit})
             return
         excess = (value.low - model.highest) if side == "above" else (model.lowest - value.high)
         if error is not None and error.value > 0 and excess <= NOISE_ALLOWANCE * error.high:
-            yield Finding("warn", f"{what} {value.text} lies {side} {num(limit)}, the most a "
-                          f"{model.summary} can be, by {num(excess / error.high, 2)} standard errors: "
+            yield Finding("warn", f"{what} {value.text} lies {side} {num(limit)}, the "
+                          f"{'most' if side == 'above' else 'least'} {model.noun} can be, by "
+                          f"{num(excess / error.high, 2)} standard errors: "
                           "possible through noise, worth a word from the authors.",
                           reported=value.value, details={**details, "field": value.path, "limit": limit})
         else:
-            yield Finding("fail", f"{what} {value.text} lies {side} {num(limit)}, the most a "
-                          f"{model.summary} can be, by more than {NOISE_ALLOWANCE:g} standard errors.",
+            yield Finding("fail", f"{what} {value.text} lies {side} {num(limit)}, the "
+                          f"{'most' if side == 'above' else 'least'} {model.noun} can be, by more "
+                          f"than {NOISE_ALLOWANCE:g} standard errors.",
                           reported=value.value, details={**details, "field": value.path, "limit": limit})
 
 
@@ -68,12 +70,16 @@ def check(claim: Claim) -> Iterator[Finding]:
         checked += 1
         if not model.lowest <= t.value <= model.highest:
             found.append(Finding("fail", f"The threshold {t.text} lies outside [{num(model.lowest)}, "
-                                 f"{num(model.highest)}], the range of a {model.summary}.",
+                                 f"{num(model.highest)}], the range of {model.noun}.",
                                  reported=t.value, details={"field": t.path}))
     p = claim.significance.p_value
     if p is not None:
         checked += 1
-        if not is_probability(p):
+        if p.value == 0 and p.high > 0:
+            found.append(Finding("warn", f"The p-value is printed as {p.text}, which stands for p below "
+                                 f"{num(p.high)}; a p-value is never zero, so print it as a bound "
+                                 f"(p < {num(p.high)}).", reported=p.value, details={"field": p.path}))
+        elif not is_probability(p):
             found.append(Finding("fail", f"The p-value is printed as {p.text}; a p-value lies in (0, 1] "
                                  "(print a bound such as p < 1e-300 for one too small to write).",
                                  reported=p.value, details={"field": p.path}))

@@ -70,7 +70,8 @@ def p_range_text(log_bounds: tuple[float, float]) -> str:
 
 def log_bounds(rep: Reported) -> tuple[float, float]:
     """Natural-log interval of a printed p-value ("< 0.001" runs down to 0)."""
-    return (min(rep.log_low, 0.0), min(rep.log_high, 0.0))
+    low = -math.inf if math.isnan(rep.log_low) else min(rep.log_low, 0.0)
+    return (low, min(rep.log_high, 0.0))
 
 
 def is_probability(rep: Reported) -> bool:

@@ -20,6 +20,7 @@ class MetricModel:
 
     name: str = ""
     summary: str = ""
+    noun: str = "a value"  # for sentences: "a proportion cannot exceed 1"
     # Range the estimate can take at all, and whether leaving it is impossible
     # (a proportion of 1.02) or only improbable (a noisy fidelity estimate of 1.02).
     lowest: float = -math.inf

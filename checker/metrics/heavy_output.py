@@ -15,6 +15,7 @@ from .base import MetricModel, ModelInputs
 class HeavyOutput(MetricModel):
     name = "heavy-output"
     summary = "heavy-output probability"
+    noun = "a heavy-output probability"
     lowest = 0.0
     highest = 1.0
     hard_bounds = True

@@ -15,6 +15,7 @@ from .base import MetricModel, ModelInputs
 class LinearXEB(MetricModel):
     name = "linear-xeb"
     summary = "linear cross-entropy fidelity, mean(D p) - 1"
+    noun = "a linear XEB fidelity"
     lowest = -1.0  # x = D p >= 0, so mean(x) - 1 >= -1
     highest = 1.0
     hard_bounds = False

@@ -14,6 +14,7 @@ from .base import MetricModel, ModelInputs
 class LogXEB(MetricModel):
     name = "log-xeb"
     summary = "logarithmic cross-entropy fidelity, mean(ln D p) + gamma"
+    noun = "a log XEB fidelity"
     highest = 1.0
     hard_bounds = False
 

@@ -6,6 +6,7 @@ from .base import MetricModel, ModelInputs
 class Mean(MetricModel):
     name = "mean"
     summary = "sample mean, sd / sqrt(N)"
+    noun = "a mean"
 
     def variance(self, value: float, inputs: ModelInputs) -> float | None:
         if inputs.sd is None:

@@ -8,6 +8,7 @@ from .base import MetricModel, ModelInputs
 class Proportion(MetricModel):
     name = "proportion"
     summary = "binomial proportion k/N"
+    noun = "a proportion"
     lowest = 0.0
     highest = 1.0
     hard_bounds = True
