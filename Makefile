@@ -27,7 +27,7 @@ test: $(STAMP)
 	$(BIN)/python -m pytest
 
 bench: $(STAMP)
-	@for f in benchmarks/*.py; do echo "== $$f"; $(BIN)/python "$$f" || exit 1; done
+	$(BIN)/python benchmarks/run_all.py
 
 clean:
 	rm -rf $(VENV) build *.egg-info
