@@ -172,16 +172,18 @@ def _convert(node, path, name, texts, lines, seen, depth):
                              f"a claim file nests at most {MAX_DEPTH} levels",
                              path=dotted(path), line=node.start_mark.line + 1)
     if id(node) in seen:
+        # The composer hands an alias back as the very node it names: a node met
+        # twice is an alias.  Refusing it also stops exponential "laughs" documents.
         raise InputFileError(name, "uses a YAML alias (*name)",
                              "write each value out; anchors and aliases are not accepted",
                              path=dotted(path), line=node.start_mark.line + 1)
+    seen.add(id(node))
     if node.tag not in _STANDARD_TAGS:
         raise InputFileError(name, f"uses the YAML tag {node.tag!r}",
                              "plain values only; tags are not accepted",
                              path=dotted(path), line=node.start_mark.line + 1)
     lines.setdefault(path, node.start_mark.line + 1)
     if isinstance(node, yaml.MappingNode):
-        seen = seen | {id(node)}
         out: dict = {}
         for key_node, value_node in node.value:
             if not isinstance(key_node, yaml.ScalarNode):
@@ -201,7 +203,6 @@ def _convert(node, path, name, texts, lines, seen, depth):
             out[key] = _convert(value_node, path + (key,), name, texts, lines, seen, depth + 1)
         return out
     if isinstance(node, yaml.SequenceNode):
-        seen = seen | {id(node)}
         return [_convert(item, path + (i,), name, texts, lines, seen, depth + 1)
                 for i, item in enumerate(node.value)]
     value = node.value
