@@ -171,11 +171,13 @@ def _no_math(*texts) -> None:
 
 # --- significance ---------------------------------------------------------------
 
-def significance_svg(estimate: float, threshold: float, error: float, *,
-                     syst_error: float | None = None, printed_sigma: float | None = None,
-                     recomputed_sigma: tuple[float, float] | None = None,
-                     error_label: str = "stat_error", estimate_text: str | None = None,
-                     error_text: str | None = None, threshold_text: str | None = None) -> str:
+def significance_svg(estimate: float, threshold: float, width: float, *,
+                     stat_error: float | None = None, syst_error: float | None = None,
+                     printed_sigma: float | None = None,
+                     recomputed_sigma: tuple[float, float] | None = None, mirror: bool = False,
+                     width_label: str = "stat_error", estimate_text: str | None = None,
+                     error_text: str | None = None, threshold_text: str | None = None,
+                     syst_text: str | None = None) -> str:
     """The null sampling distribution at the threshold, the estimate with its
     error bar, and the printed and recomputed sigma marked.
 
@@ -183,72 +185,80 @@ def significance_svg(estimate: float, threshold: float, error: float, *,
     ----------
     estimate, threshold : float
         As printed.
-    error : float
+    width : float
         The width the null is drawn with (the printed error the claim's stated
-        convention divides by); the sigma marks sit at threshold + sigma x error.
+        convention divides by); the sigma marks sit at threshold + sigma x width.
+    stat_error : float, optional
+        The estimate's error bar (default: ``width``).
     syst_error : float, optional
         Drawn as a second, lighter bar under the estimate.
     printed_sigma : float, optional
     recomputed_sigma : (low, high), optional
         The recomputed range from the significance finding.
-    error_label : str
-        Which printed error ``error`` is, for the axis label.
-    estimate_text, error_text, threshold_text : str, optional
+    mirror : bool
+        Place the sigma marks below the threshold (a two-sided sigma, which is
+        a distance, for an estimate below the threshold).  Labels keep the
+        values as given.
+    width_label : str
+        Which printed error ``width`` is, for the axis label.
+    estimate_text, error_text, threshold_text, syst_text : str, optional
         The numbers as printed, for the labels (default: three significant figures).
     """
     import numpy as np
 
-    if not _finite(estimate, threshold, error) or error <= 0:
-        raise ValueError("significance_svg needs a finite estimate, threshold and a positive error")
-    marks = [0.0, (estimate - threshold) / error]  # positions on the picture's sigma axis
-    if printed_sigma is not None and _finite(printed_sigma):
-        marks.append(printed_sigma)
-    if recomputed_sigma is not None and _finite(*recomputed_sigma):
-        marks.extend(recomputed_sigma)
-    bar = max(error, syst_error or 0.0)
-    lo = min(threshold - 4.0 * error, estimate - 2.5 * bar, threshold + (min(marks) - 1.0) * error)
-    hi = max(threshold + 4.0 * error, estimate + 2.5 * bar, threshold + (max(marks) + 1.0) * error)
-    with _drawing("significance", 3.9) as fig:
+    if not _finite(estimate, threshold, width) or width <= 0:
+        raise ValueError("the significance picture needs a finite estimate and threshold and a positive error")
+    bar = stat_error if _finite(stat_error) and stat_error > 0 else width
+    syst = syst_error if _finite(syst_error) and syst_error > 0 else None
+    side = -1.0 if mirror else 1.0
+    printed = printed_sigma if _finite(printed_sigma) else None
+    recomputed = tuple(sorted(recomputed_sigma)) if recomputed_sigma is not None and _finite(*recomputed_sigma) else None
+    marks = [0.0, (estimate - threshold) / width]  # positions on the picture's sigma axis
+    marks += [side * printed] if printed is not None else []
+    marks += [side * r for r in recomputed] if recomputed is not None else []
+    reach = max(bar, syst or 0.0)
+    lo = min(threshold - 4.0 * width, estimate - 2.5 * reach, threshold + (min(marks) - 1.0) * width)
+    hi = max(threshold + 4.0 * width, estimate + 2.5 * reach, threshold + (max(marks) + 1.0) * width)
+    with _drawing("significance", 4.1) as fig:
         ax = fig.add_subplot()
         x = np.linspace(lo, hi, 600)
-        z = (x - threshold) / error
+        z = (x - threshold) / width
         density = np.exp(-0.5 * z * z)  # peak height 1: the shape is what matters here
         ax.fill_between(x, density, color=FAINT, alpha=0.7, linewidth=0)
-        ax.plot(x, density, color=MUTED, linewidth=1.6, label=f"null: centred on the threshold, width {error_label}")
+        ax.plot(x, density, color=MUTED, linewidth=1.6, label="null distribution at the threshold")
         ax.axvline(threshold, color=MUTED, linewidth=1.0)
         ax.annotate(f"threshold {_plain(threshold_text or _fmt(threshold))}", (threshold, 1.03),
                     ha="center", va="bottom", fontsize=10, color=INK, annotation_clip=False,
                     parse_math=False)
-        top = 1.16
-        if recomputed_sigma is not None and _finite(*recomputed_sigma):
-            a, b = (threshold + s * error for s in sorted(recomputed_sigma))
-            width = max(b - a, (hi - lo) / 400)  # a range that rounds to one value still shows
-            ax.axvspan(a, a + width, ymax=1.0 / top * 0.86, facecolor="none", edgecolor=ACCENT,
-                       hatch="////", linewidth=1.0,
-                       label=f"recomputed {_fmt(recomputed_sigma[0])} to {_fmt(recomputed_sigma[1])} σ")
-        if printed_sigma is not None and _finite(printed_sigma):
-            px = threshold + printed_sigma * error
-            ax.axvline(px, ymax=1.0 / top * 0.86, color=OCHRE, linewidth=2.2, linestyle=(0, (5, 3)),
-                       label=f"printed {_fmt(printed_sigma)} σ")
-        ax.errorbar([estimate], [0.55], xerr=[[error], [error]], fmt="o", color=INK, markersize=8,
+        top, band_top = 1.16, 0.86 / 1.16
+        if recomputed is not None:
+            a, b = sorted(threshold + side * r * width for r in recomputed)
+            span = max(b - a, (hi - lo) / 400)  # a range that rounds to one value still shows
+            ax.axvspan(a, a + span, ymax=band_top, facecolor="none", edgecolor=ACCENT, hatch="////",
+                       linewidth=1.0, label=f"recomputed {_fmt(recomputed[0])} to {_fmt(recomputed[1])} σ")
+        if printed is not None:
+            ax.axvline(threshold + side * printed * width, ymax=band_top, color=OCHRE, linewidth=2.2,
+                       linestyle=(0, (2.5, 1.5)), label=f"printed {_fmt(printed)} σ")
+        ax.errorbar([estimate], [0.55], xerr=[[bar], [bar]], fmt="o", color=INK, markersize=8,
                     capsize=5, linewidth=2.0,
                     label=f"estimate {_plain(estimate_text or _fmt(estimate))} ± "
-                          f"{_plain(error_text or _fmt(error))}")
-        if syst_error is not None and _finite(syst_error) and syst_error > 0:
-            ax.errorbar([estimate], [0.42], xerr=[[syst_error], [syst_error]], fmt="none", color=MUTED,
-                        capsize=4, linewidth=1.4, linestyle="--", label=f"± syst {_fmt(syst_error)}")
+                          f"{_plain(error_text or _fmt(bar))}")
+        if syst is not None:
+            ax.errorbar([estimate], [0.42], xerr=[[syst], [syst]], fmt="none", color=MUTED,
+                        capsize=4, linewidth=1.4, linestyle="--", label=f"± syst {_plain(syst_text or _fmt(syst))}")
         ax.set_xlim(lo, hi)
         ax.set_ylim(0, top)
         ax.set_yticks([])
         ax.spines["left"].set_visible(False)
         _value_axis(ax, "value of the estimate")
-        sec = ax.secondary_xaxis("top", functions=(lambda v: (v - threshold) / error,
-                                                   lambda s: threshold + s * error))
-        sec.set_xlabel(f"distance from the threshold, in units of {error_label} (σ)", color=MUTED)
+        sec = ax.secondary_xaxis("top", functions=(lambda v: (v - threshold) / width,
+                                                   lambda s: threshold + s * width))
+        sec.set_xlabel(f"distance from the threshold, in units of {width_label} (σ)", color=MUTED)
         sec.tick_params(colors=MUTED)
         legend = fig.legend(loc="outside lower center", ncol=2, handlelength=2.6)
         _no_math(legend.get_texts())
-        return _save(fig, "significance", "The null distribution at the threshold, the estimate, and the printed and recomputed significance")
+        return _save(fig, "significance", "The null distribution at the threshold, the estimate, "
+                     "and the printed and recomputed significance")
 
 
 # --- forest plot -------------------------------------------------------------------

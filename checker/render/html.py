@@ -338,11 +338,11 @@ def _significance_figure(report: Report, claim: Claim) -> str | None:
     if claim.threshold is None or claim.stat_error is None or not claim.stat_error.value > 0:
         return None
     sig = claim.significance
-    error, label = claim.stat_error.value, "stat_error"
+    width, label = claim.stat_error.value, "stat_error"
     syst = claim.syst_error.value if claim.syst_error is not None else None
     if sig.systematics in ("quadrature", "marginalized") and syst:
-        # Drawing width of the null under the stated convention; the check did the statistics.
-        error, label = math.hypot(error, syst), "stat_error and syst_error in quadrature"
+        # The drawing width of the null under the stated convention; the check did the statistics.
+        width, label = math.hypot(width, syst), "stat_error and syst_error in quadrature"
     recomputed = None
     for f in found:
         d = f.details
@@ -350,13 +350,16 @@ def _significance_figure(report: Report, claim: Claim) -> str | None:
             recomputed = (d["sigma_low"], d["sigma_high"])
             break
     printed = sig.sigma.value if sig.sigma is not None else None
-    svg = significance_svg(claim.estimate.value, claim.threshold.value, error, syst_error=syst,
-                           printed_sigma=printed, recomputed_sigma=recomputed, error_label=label,
-                           estimate_text=claim.estimate.text, threshold_text=claim.threshold.text,
-                           error_text=claim.stat_error.text if label == "stat_error" else None)
+    svg = significance_svg(claim.estimate.value, claim.threshold.value, width,
+                           stat_error=claim.stat_error.value, syst_error=syst, printed_sigma=printed,
+                           recomputed_sigma=recomputed,
+                           mirror=sig.sided == "two" and claim.estimate.value < claim.threshold.value,
+                           width_label=label, estimate_text=claim.estimate.text,
+                           threshold_text=claim.threshold.text, error_text=claim.stat_error.text,
+                           syst_text=claim.syst_error.text if claim.syst_error is not None else None)
     rows = [["estimate", claim.estimate.text, "as printed"],
             ["threshold", claim.threshold.text, "as printed"],
-            [label, claim.stat_error.text if label == "stat_error" else num(error), "width of the null drawn"]]
+            [label, claim.stat_error.text if label == "stat_error" else num(width), "width of the null drawn"]]
     if sig.sigma is not None:
         rows.append(["sigma", sig.sigma.text, "as printed"])
     if recomputed is not None:
@@ -366,7 +369,7 @@ def _significance_figure(report: Report, claim: Claim) -> str | None:
         rows.append(["p-value", sig.p_value.text, "as printed"])
     caption = (f"The null distribution: a Gaussian centred on the threshold with width {label}. "
                "The dot is the estimate with its error bar; the dashed line marks the printed sigma "
-               "and the hatched band the recomputed range, both placed at threshold + sigma x width"
+               "and the hatched band the recomputed range, each placed that many widths from the threshold"
                + (" (the claim divides by the error at the threshold; the width drawn is the "
                   "printed one)" if sig.error_at == "threshold" else "") + ".")
     return figure_html(svg, caption, "figure-significance",

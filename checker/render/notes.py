@@ -250,6 +250,7 @@ class Point:
 # Where a finding's details keep the recomputed range: (low key, high key, kind).
 _RANGE_KEYS = {
     ("significance", "sigma"): ("sigma_low", "sigma_high", "plain"),
+    ("significance", "required_sigma"): ("sigma_low", "sigma_high", "plain"),
     ("significance", "p_value"): ("log10_p_low", "log10_p_high", "log10"),
     ("significance", "p_from_sigma"): ("p_from_sigma_low", "log10_p_from_sigma", "mixed"),
     ("error-floor", None): ("floor_low", "floor_high", "plain"),

@@ -176,3 +176,13 @@ def test_renderers_import_no_matplotlib_until_drawing():
             "print('matplotlib' in sys.modules, 'pyplot' in ' '.join(sys.modules))")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert out.stdout.split() == ["False", "False"]
+
+
+def test_mirror_puts_a_two_sided_sigma_on_the_estimates_side():
+    # Estimate half a width below the threshold, a printed (two-sided) 6 sigma:
+    # the mark and so the sigma axis reach -6 and beyond, not +6.
+    below = _texts(figures.significance_svg(0.95, 1.0, 0.1, printed_sigma=6.0, mirror=True))
+    above = _texts(figures.significance_svg(0.95, 1.0, 0.1, printed_sigma=6.0))
+    assert "−6" in below and "6" not in below
+    assert "6" in above and "−6" not in above
+    assert "printed 6 σ" in below and "printed 6 σ" in above

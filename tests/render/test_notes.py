@@ -107,3 +107,13 @@ def test_summary_lines(monkeypatch):
         "claimcheck could compare none of this claim's printed numbers with its inputs (1 check lacks "
         "its inputs).",
         "Verdict: incomplete. The claim would need the inputs listed under 'Not checked'.")
+
+
+def test_required_sigma_point_shows_the_recomputed_range(monkeypatch):
+    claim = load("sidedness_slip.yaml", monkeypatch)
+    f = Finding("fail", "Recomputed 3.1 to 3.4 sigma falls short of the required 5 sigma.", reported=5.0,
+                recomputed=3.25, details={"quantity": "required_sigma", "sigma_low": 3.1, "sigma_high": 3.4,
+                                          "required": 5.0}, check="significance")
+    p = make_point(f, claim)
+    assert (p.printed, p.printed_field, p.implied) == ("5", "significance.required_sigma", "3.1 to 3.4")
+    assert not p.unmatched and p.question.startswith("On what basis does the claim reach")
