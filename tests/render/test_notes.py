@@ -7,7 +7,6 @@ import math
 
 import pytest
 
-from checker.claim import read_claim
 from checker.render.notes import (convention_words, make_point, num, num_range, printed_for,
                                   printed_numbers, summary_lines)
 from checker.report import Finding, Report
