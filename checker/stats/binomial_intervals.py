@@ -65,3 +65,23 @@ def proportion_interval(count: float, n: float, level: float, method: str) -> tu
         low = 0.0 if count == 0 or low != low else low
         high = 1.0 if count == n or high != high else high
     return (min(max(low, 0.0), 1.0), min(max(high, 0.0), 1.0))
+
+
+def proportion_intervals(counts, n: float, level: float, method: str) -> list[tuple[float, float]]:
+    """:func:`proportion_interval` for many counts of the same n in one call."""
+    import numpy as np
+
+    if method not in _STATSMODELS_NAME:
+        raise ValueError(f"method must be one of {METHODS}, got {method!r}")
+    k = np.asarray(counts, dtype=float)
+    if not n > 0 or np.any(k < 0) or np.any(k > n) or not 0 < level < 1:
+        raise ValueError("need 0 <= count <= n, n > 0 and a level in (0, 1)")
+    from statsmodels.stats.proportion import proportion_confint
+
+    low, high = (np.atleast_1d(np.asarray(b, dtype=float)) for b in
+                 proportion_confint(k, n, alpha=1.0 - level, method=_STATSMODELS_NAME[method]))
+    if method in ("clopper-pearson", "jeffreys"):
+        low = np.where((k == 0) | np.isnan(low), 0.0, low)
+        high = np.where((k == n) | np.isnan(high), 1.0, high)
+    low, high = np.clip(low, 0.0, 1.0), np.clip(high, 0.0, 1.0)
+    return [(float(a), float(b)) for a, b in zip(low, high)]

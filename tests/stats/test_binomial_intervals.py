@@ -102,3 +102,13 @@ def test_every_method_brackets_the_estimate_and_stays_in_range():
 def test_unusable_requests_are_refused(args):
     with pytest.raises(ValueError):
         proportion_interval(*args)
+
+
+@pytest.mark.parametrize("method", METHODS)
+def test_many_counts_in_one_call_match_one_at_a_time(method):
+    from checker.stats.binomial_intervals import proportion_intervals
+
+    counts = [0, 1, 7, 19, 20]
+    together = [b for pair in proportion_intervals(counts, 20, 0.9, method) for b in pair]
+    apart = [b for k in counts for b in proportion_interval(k, 20, 0.9, method)]
+    assert together == pytest.approx(apart, abs=1e-12)
