@@ -72,6 +72,31 @@ def test_inverse_variance_matches_statsmodels_fixed_effect():
     assert c.stat_error == pytest.approx(float(ref.sd_eff_w_fe), rel=1e-12)
 
 
+@pytest.mark.parametrize("method", ["dl", "pm"])
+def test_random_effects_match_statsmodels(method):
+    from statsmodels.stats.meta_analysis import combine_effects
+
+    rng = np.random.default_rng(4)
+    y = rng.normal(0.0, 0.3, 10)  # spread well beyond the errors, so tau^2 > 0
+    s = rng.uniform(0.05, 0.2, 10)
+    ref = combine_effects(y, s ** 2, method_re=method)  # statsmodels takes variances
+    c = random_effects(y, s, method)
+    assert float(ref.tau2) > 0
+    # statsmodels iterates Paule-Mandel to its own default tolerance.
+    rel = 1e-10 if method == "dl" else 1e-5
+    assert c.tau2 == pytest.approx(float(ref.tau2), rel=rel)
+    assert c.estimate == pytest.approx(float(ref.mean_effect_re), rel=rel)
+    assert c.stat_error == pytest.approx(float(ref.sd_eff_w_re), rel=rel)
+
+
+def test_bcg_paule_mandel_against_statsmodels():
+    from statsmodels.stats.meta_analysis import combine_effects
+
+    y, s = bcg()
+    ref = combine_effects(y, s ** 2, method_re="pm")
+    assert random_effects(y, s, "pm").tau2 == pytest.approx(float(ref.tau2), rel=1e-5)
+
+
 def test_random_effects_truncates_a_negative_dersimonian_laird_tau2():
     # DerSimonian and Laird, Control. Clin. Trials 7, 177 (1986): tau^2 = max(0, (Q - df)/c).
     # These three parts scatter less than their errors (Q = 0.60 on 2 df); statsmodels 0.15 returns
