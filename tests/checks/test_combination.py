@@ -302,3 +302,19 @@ def test_random_multi_part_claims_only_ever_give_findings(text):
     from checker.render.json import render_json
 
     render_json(rep)  # no NaN or Infinity reaches the JSON
+
+
+def test_parts_do_not_load_statsmodels_either():
+    # The random-effects fits and Cochran's Q are computed without statsmodels or scipy.stats
+    # (statsmodels is only the tests' reference), so a claim with parts starts as fast as one without.
+    code = textwrap.dedent("""
+        import sys
+        import checker
+        report = checker.check({"title": "t", "metric": "mean", "estimate": 1.0, "stat_error": 0.1,
+                                "parts": [{"estimate": 0.9, "stat_error": 0.1}, {"estimate": 1.3, "stat_error": 0.1}],
+                                "combination": {"method": "random-effects"}})
+        assert {f.check for f in report.findings} >= {"combination", "heterogeneity"}
+        print("statsmodels" in sys.modules, "scipy.stats" in sys.modules)
+    """)
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    assert out.stdout.split() == ["False", "False"]
