@@ -104,15 +104,12 @@ def check(claim: Claim) -> Iterator[Finding]:
                       "items (only pooling by samples is), so only parts are tested.", details={})
     else:
         yield _one(claim, claim.estimate, claim.samples, "Headline", {}, proportion, items)
-    found = [_one(claim, part.estimate, part.samples, f"Part {part.label}", {"part": part.label},
-                  proportion, items) for part in claim.parts if part.samples is not None]
-    blunt = [f for f in found if f.status == "skip" and f.details.get("possible")]
-    if len(blunt) > 1:
-        # One line for all the parts the rule cannot test, not one each.
-        labels = [f.details["part"] for f in blunt]
-        units = sorted({f.details["units"] for f in blunt})
-        yield Finding("skip", f"Parts {', '.join(labels)}: with {' to '.join(str(u) for u in units[::max(1, len(units) - 1)])} "
-                      "items each, every value printed to their precision is some whole count, so the "
-                      "granularity test cannot bite.", details={"parts": labels, "units": units})
-        found = [f for f in found if f not in blunt]
-    yield from found
+    for part in claim.parts:
+        if part.samples is not None:
+            yield _one(claim, part.estimate, part.samples, _part_name(part.label), {"part": part.label},
+                       proportion, items)
+
+
+def _part_name(label: str) -> str:
+    """'Part c1', and 'Part 2' rather than 'Part part 2' for an unlabelled part."""
+    return label[:1].upper() + label[1:] if label.lower().startswith("part ") else f"Part {label}"

@@ -96,9 +96,9 @@ def test_what_cannot_be_tested_is_a_skip():
     assert "weighted combination" in findings(text)[0].message
 
 
-def test_many_untestable_parts_share_one_line():
-    parts = "\n".join(f"  - {{label: p{i}, estimate: 0.91{i}, samples: 4000}}" for i in range(5))
-    text = f"title: t\nmetric: proportion\nestimate: 0.91\nparts:\n{parts}\n"
-    fs = findings(text)
-    assert len(fs) == 2
-    assert fs[1].message.startswith("Parts p0, p1, p2, p3, p4: with 4000 items each")
+def test_each_part_gets_its_own_finding():
+    # DESIGN.md: checks on parts report one finding per part, with the part's label in details.
+    parts = "\n".join(f"  - {{estimate: 0.91{i}, samples: 4000}}" for i in range(3))
+    fs = findings(f"title: t\nmetric: proportion\nestimate: 0.91\nparts:\n{parts}\n")
+    assert [f.details.get("part") for f in fs] == [None, "part 1", "part 2", "part 3"]
+    assert fs[1].message.startswith("Part 1: with 4000 items every value")
