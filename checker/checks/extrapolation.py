@@ -44,15 +44,19 @@ def _combined(claim: Claim):
     """(estimate value, range, error value or None, error range or None, where
     it came from, the Reported used for wording)."""
     comb = claim.combination
+    summary = parts_summary(claim)
+    method = comb.method if comb is not None else "inverse-variance"
+    r = None
+    if summary is not None:
+        r = summary.methods.get(method) or summary.methods.get("equal")
     if comb is not None and comb.estimate is not None:
         err = comb.stat_error
+        if err is None and r is not None and r.stat_error is not None:
+            # The value is printed, its error only implied by the parts.
+            return (comb.estimate.value, comb.estimate.bounds, r.stat_error, r.stat_error_range,
+                    "printed (error recomputed from the parts)", comb.estimate, None)
         return (comb.estimate.value, comb.estimate.bounds, err.value if err else None,
                 err.bounds if err else None, "printed", comb.estimate, err)
-    summary = parts_summary(claim)
-    if summary is None:
-        return None
-    method = comb.method if comb is not None else "inverse-variance"
-    r = summary.methods.get(method) or summary.methods.get("equal")
     if r is None:
         return None
     return (r.estimate, r.estimate_range, r.stat_error, r.stat_error_range,

@@ -136,3 +136,21 @@ EDGE = """
                                               ("2.0e-3", "fail"), ("1.85e-3", "pass"), ("1.86e-3", "fail")])
 def test_printed_precision_edge(estimate, status):
     assert findings(EDGE.format(estimate=estimate))["estimate"].status == status
+
+
+def test_a_printed_combined_value_takes_its_error_from_the_parts():
+    text = """
+        title: t
+        metric: mean
+        estimate: 1.80
+        stat_error: 0.0636
+        parts:
+          - {estimate: 1.90, stat_error: 0.100}
+          - {estimate: 2.10, stat_error: 0.100}
+        combination: {method: inverse-variance, estimate: 2.00}
+        extrapolation: {factor: 0.9}
+    """
+    f = findings(text)["stat_error"]
+    # 0.9 x 0.1/sqrt(2) = 0.0636.
+    assert f.status == "pass"
+    assert f.details["combined_from"] == "printed (error recomputed from the parts)"
