@@ -67,9 +67,10 @@ def _one(claim: Claim, value: Reported, n: Reported | None, what: str, details: 
     if g.possible:
         k = g.counts[0]
         several = f" (or {g.counts[-1]}/{units})" if len(g.counts) > 1 else ""
-        return Finding("pass", f"{what}: {value.text} is {k}/{units} = {like(k / units, value)}{several}, a "
-                       f"whole count of the {count} {noun}{per}.", reported=value.value,
-                       recomputed=k / units, details=facts)
+        whole = (f"a whole count of the {count} {noun}" if proportion
+                 else f"a whole-number total over the {count} responses{per}")
+        return Finding("pass", f"{what}: {value.text} is {k}/{units} = {like(k / units, value)}{several}, "
+                       f"{whole}.", reported=value.value, recomputed=k / units, details=facts)
     near = []
     if g.below is not None:
         near.append(f"{g.below}/{units} = {like(g.below / units, value)}")
