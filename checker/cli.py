@@ -16,6 +16,7 @@ from .errors import ClaimcheckError
 COMMANDS = {
     "check": "check",
     "schema": "schema",
+    "batch": "batch",
 }
 
 DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs and say, number by "
