@@ -77,6 +77,13 @@ def _leaf_test(schema: dict) -> Callable[[Any], bool] | None:
             if test is None:
                 return None
             tests.append(test)
+        patterns = [a for a in schema["anyOf"] if a.get("type") == "string"
+                    and set(a) - _DESCRIPTIVE <= {"type", "pattern"} and "pattern" in a]
+        if len(patterns) == len(tests):
+            # Only patterns: one regular expression per alternative, tried in turn (the common
+            # number-or-printed-text field, tested once per cell of every row).
+            searches = tuple(re.compile(a["pattern"]).search for a in patterns)
+            return lambda v: isinstance(v, str) and any(search(v) is not None for search in searches)
         return lambda v: any(t(v) for t in tests)
     return None
 
@@ -139,6 +146,9 @@ class ColumnPlan:
                             "the first row names the fields: title, metric, estimate, ...")
         self.columns = tuple(columns)
         self._tests = tuple(tests)
+        # The claim columns, as (cell index, field path, quick test, true/false field).
+        self._active = tuple((i, c.path, t, c.boolean) for i, (c, t) in enumerate(zip(columns, tests))
+                             if not c.note)
         self._root_required = tuple(schema.get("required", ()))
         self._groups = tuple(groups.values())
 
@@ -194,16 +204,13 @@ class ColumnPlan:
         data: dict = {}
         texts: dict = {}
         quick = self.quick
-        for column, test, cell in zip(self.columns, self._tests, cells):
-            if column.note:
-                continue
-            cell = cell.strip()
+        for index, path, test, boolean in self._active:
+            cell = cells[index].strip()
             if not cell:
                 continue
             value: Any = cell
-            if column.boolean:
+            if boolean:
                 value = True if cell in _TRUE else False if cell in _FALSE else cell
-            path = column.path
             texts[path] = cell
             if len(path) == 1:
                 data[path[0]] = value
@@ -211,8 +218,6 @@ class ColumnPlan:
                 node = data
                 for key in path[:-1]:
                     node = node.setdefault(key, {})
-                    if not isinstance(node, dict):  # pragma: no cover - paths are checked per table
-                        break
                 node[path[-1]] = value
             if quick and not test(value):
                 quick = False
