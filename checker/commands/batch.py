@@ -86,6 +86,9 @@ def run(args, stdout, stderr) -> int:
             raise OutputError(args.out, f"has the extension {Path(args.out).suffix or '(none)'!r}",
                               "write the table to a file ending in .csv, .json or .html")
         refuse_overwriting_inputs(args.out, inputs)
+        folder = Path(args.out).parent
+        if not folder.is_dir():  # say so before the work, not after
+            raise OutputError(args.out, "its folder does not exist", "create the folder first")
     progress = Progress(stderr)
     try:
         result = run_batch(args.table, jobs=args.jobs, progress=progress)

@@ -49,8 +49,8 @@ def render_batch_html(frame, summary: dict) -> str:
     v = summary["verdicts"]
     clear = summary["clear_required_sigma"]
     facts = [
-        f"{_plural(summary['rows'], 'row')}; {_plural(summary['checked'], 'claim')} checked; "
-        f"{_plural(summary['unusable'], 'row')} could not be used.",
+        f"{_plural(summary['rows'], summary.get('unit', 'row'))}; {_plural(summary['checked'], 'claim')} checked; "
+        f"{_plural(summary['unusable'], summary.get('unit', 'row'))} could not be used.",
         f"Verdicts: {v['consistent']:,} consistent, {v['inconsistent']:,} inconsistent, "
         f"{v['incomplete']:,} incomplete.",
         f"Of {summary['with_required_sigma']:,} claims that state a required sigma, "

@@ -20,9 +20,10 @@ def render_batch_text(frame, summary: dict) -> str:
     """The summary a person reads first: counts, the adjusted tally, and the
     claims that were flagged."""
     v = summary["verdicts"]
-    lines = [f"{summary['table']}: {_plural(summary['rows'], 'row')}; "
+    unit = summary.get("unit", "row")
+    lines = [f"{summary['table']}: {_plural(summary['rows'], unit)}; "
              f"{_plural(summary['checked'], 'claim')} checked"
-             + (f", {_plural(summary['unusable'], 'row')} could not be used" if summary["unusable"] else ""),
+             + (f", {_plural(summary['unusable'], unit)} could not be used" if summary["unusable"] else ""),
              f"verdicts: {v['consistent']:,} consistent, {v['inconsistent']:,} inconsistent, "
              f"{v['incomplete']:,} incomplete"]
     need = summary["with_required_sigma"]
@@ -54,7 +55,7 @@ def render_problems(problems, limit: int = SHOW_AT_MOST) -> str:
     """The rows that could not be used, one line each (at most ``limit``)."""
     lines = list(problems[:limit])
     if len(problems) > limit:
-        lines.append(f"... and {len(problems) - limit:,} more rows that could not be used "
+        lines.append(f"... and {len(problems) - limit:,} more that could not be used "
                      "(each is in the table written with --out)")
     return "".join(line + "\n" for line in lines)
 

@@ -198,8 +198,9 @@ def _records(source: Table | Folder, jobs: int | None, progress) -> list:
 
 # --- across the set ------------------------------------------------------
 
-def summarize(records: list, name: str):
-    """The summary frame and the set-wide counts from the per-claim records."""
+def summarize(records: list, name: str, unit: str = "row"):
+    """The summary frame and the set-wide counts from the per-claim records
+    (``unit`` is what one record came from: a table ``row`` or a ``file``)."""
     import numpy as np
     import pandas as pd
 
@@ -251,6 +252,7 @@ def summarize(records: list, name: str):
     verdicts = {v: int(sum(1 for x in col["verdict"] if x == v)) for v in VERDICTS}
     summary = {
         "table": name,
+        "unit": unit,
         "rows": len(records),
         "checked": len(records) - verdicts[UNUSABLE],
         "unusable": verdicts[UNUSABLE],
@@ -292,5 +294,5 @@ def run_batch(source: Any, jobs: int | None = None,
     """
     table = read_source(source)
     records = _records(table, jobs, progress)
-    frame, summary, problems = summarize(records, table.name)
+    frame, summary, problems = summarize(records, table.name, "row" if isinstance(table, Table) else "file")
     return BatchResult(table.name, frame, summary, problems)

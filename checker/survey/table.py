@@ -125,7 +125,13 @@ def read_table_file(path: Path) -> Table:
 
 
 def parse_delimited(text: str, name: str, delimiter: str = ",") -> Table:
-    """A CSV (or TSV) text: comment lines, a header, then one claim per row."""
+    """A CSV (or TSV) text: comment lines, a header, then one claim per row.
+
+    The csv module rather than pandas.read_csv: a row with too many or too
+    few cells must become one reported bad row (with its line) while the rest
+    are checked, where read_csv stops the whole table; and every cell stays
+    the text written.
+    """
     handle = io.StringIO(text, newline="")
     skipped = 0
     # Comment lines before the header (a note such as "invented data").

@@ -131,3 +131,16 @@ def test_progress_bar_only_on_a_terminal():
     text = screen.getvalue()
     assert "\rchecking claims [###############...............] 5 of 10" in text
     assert "10 of 10" in text and text.endswith("\r")
+
+
+def test_folder_summary_counts_files_and_a_missing_out_folder_stops_first(tmp_path):
+    folder = tmp_path / "claims"
+    folder.mkdir()
+    (folder / "a.yaml").write_text("title: A\nmetric: mean\nestimate: 0.25\n")
+    (folder / "b.json").write_text("{")
+    status, stdout, stderr = claimcheck("batch", folder)
+    assert status == 2
+    assert stdout.splitlines()[0] == f"{folder}: 2 files; 1 claim checked, 1 file could not be used"
+    assert stderr.startswith(f"{folder / 'b.json'} (line 1): is not valid JSON")
+    status, stdout, stderr = claimcheck("batch", folder, "--out", tmp_path / "nowhere" / "out.csv")
+    assert status == 2 and stdout == "" and "its folder does not exist" in stderr

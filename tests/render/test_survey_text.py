@@ -38,7 +38,7 @@ def test_long_lists_are_cut(example):
     assert f"  ... and {30 - SHOW_AT_MOST} more (write them all with --out)" in text
     problems = [f"row {i}: bad" for i in range(25)]
     out = render_problems(problems).splitlines()
-    assert len(out) == SHOW_AT_MOST + 1 and out[-1].startswith("... and 5 more rows")
+    assert len(out) == SHOW_AT_MOST + 1 and out[-1].startswith("... and 5 more that could not be used")
 
 
 def test_csv_round_trips(example):
