@@ -5,6 +5,7 @@ The public face for notebooks::
     import checker
     report = checker.check("claims_examples/some_claim.yaml")
     report.verdict, report.to_frame()
+    table = checker.batch("claims_examples/survey_table.csv")   # a pandas DataFrame
 """
 
 from __future__ import annotations
@@ -23,5 +24,36 @@ def check(source: "str | Mapping[str, Any]", only=None) -> Report:
     return run_checks(read_claim(source), only)
 
 
-__all__ = ["check", "Report", "Finding", "ClaimcheckError", "ClaimSchemaError",
+def batch(table, jobs: int | None = None):
+    """Check every claim of a survey; one row per claim.
+
+    Parameters
+    ----------
+    table : str, Path, pandas.DataFrame or list of mappings
+        A CSV/TSV/Parquet table or a folder of claim files (a path), a
+        DataFrame whose columns are claim fields with dots for nesting
+        (``significance.sigma``), or a list of claim mappings.
+    jobs : int, optional
+        Worker processes (default: one for small tables, every CPU from
+        2,000 claims).
+
+    Returns
+    -------
+    pandas.DataFrame
+        Columns ``source``, ``title``, ``verdict``, ``failed_checks``,
+        ``sigma_recomputed``, ``p_recomputed``, ``p_holm``, ``p_bh``,
+        ``required_sigma``, ``clears_required``, ``clears_holm``,
+        ``clears_bh``, ... (see ``checker.survey.COLUMNS``).  A row that cannot
+        be used has verdict ``unusable`` and the reason in ``problem``; the
+        counts across the set are in ``frame.attrs["summary"]``.
+    """
+    from .survey import run_batch
+
+    result = run_batch(table, jobs=jobs)
+    frame = result.frame
+    frame.attrs["summary"] = result.summary
+    return frame
+
+
+__all__ = ["check", "batch", "Report", "Finding", "ClaimcheckError", "ClaimSchemaError",
            "InputFileError", "DataError"]

@@ -16,6 +16,8 @@ from .errors import ClaimcheckError
 COMMANDS = {
     "check": "check",
     "schema": "schema",
+    "batch": "batch",
+    "plan": "plan",
 }
 
 DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs and say, number by "

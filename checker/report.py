@@ -7,7 +7,7 @@ convention or method under which it would agree.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field
 from types import MappingProxyType
 from typing import Any, Mapping
 
@@ -55,7 +55,13 @@ class Finding:
             object.__setattr__(self, "reproduced_by", _frozen(self.reproduced_by))
 
     def from_check(self, check: str) -> "Finding":
-        return replace(self, check=check)
+        # A field-for-field copy with the check id set: what dataclasses.replace
+        # gives (the values are already validated and frozen), at a fraction of
+        # its cost, which a batch of 100,000 claims pays eight times per claim.
+        new = object.__new__(type(self))
+        new.__dict__.update(self.__dict__)
+        object.__setattr__(new, "check", check)
+        return new
 
 
 @dataclass(frozen=True)

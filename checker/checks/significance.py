@@ -122,6 +122,28 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
     return Recomputed(convention, sigma, log_p)
 
 
+class _Lazy:
+    """An iterable that computes its items only as far as a search reads them,
+    each at most once.  The order, and so every search's answer, is that of the
+    eager list; it saves the (costly, for marginalized systematics) conventions
+    that no search reaches."""
+
+    def __init__(self, items):
+        self._items = iter(items)
+        self._done: list = []
+
+    def __iter__(self):
+        i = 0
+        while True:
+            if i == len(self._done):
+                try:
+                    self._done.append(next(self._items))
+                except StopIteration:
+                    return
+            yield self._done[i]
+            i += 1
+
+
 def _differs(conv: dict, stated: dict) -> dict:
     return {k: conv[k] for k in KEYS if conv[k] != stated[k]}
 
@@ -164,7 +186,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     sig = claim.significance
     stated = stated_convention(claim)
     conventions = _conventions(claim)
-    results = [r for r in (recompute(claim, c) for c in conventions) if r is not None]
+    results = _Lazy(r for r in (recompute(claim, c) for c in conventions) if r is not None)
     mine = next((r for r in results if r.convention == stated), None)
     if mine is None:
         missing = []

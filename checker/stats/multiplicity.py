@@ -24,6 +24,8 @@ def log_sidak(log_p: float, trials: float) -> float:
     if log_p >= 0.0:
         return 0.0
     p = math.exp(log_p)
+    if p >= 1.0:  # log p within 1e-16 of 0: 1 - p rounds to 0, so 1 - (1 - p)^N is 1
+        return 0.0
     if trials * p < 1e-12:
         # 1 - (1 - p)^N = N p (1 - (N - 1) p / 2 + ...); the correction is below 1e-12.
         return math.log(trials) + log_p + math.log1p(-(trials - 1) * p / 2)

@@ -9,6 +9,7 @@ printed value (common practice: half a unit in the last printed digit).
 
 from __future__ import annotations
 
+import functools
 import itertools
 import math
 import re
@@ -54,6 +55,7 @@ def is_number_text(text: str) -> bool:
     return bool(_NUMBER.match(text)) and bool(_HAS_DIGIT.search(mantissa))
 
 
+@functools.lru_cache(maxsize=65536)  # pure, and a table repeats its texts (thresholds, counts, levels)
 def parse_printed(text: str, exact: bool = False) -> Printed:
     """Read a printed number and the interval its digits stand for.
 

@@ -14,6 +14,7 @@ an upper limit", Nucl. Instrum. Meth. A 320, 331 (1992).
 
 from __future__ import annotations
 
+import functools
 import math
 
 import numpy as np
@@ -25,6 +26,7 @@ def log_p_quadrature(distance: float, stat_error: float, syst_error: float) -> f
     return float(log_ndtr(-distance / math.hypot(stat_error, syst_error)))
 
 
+@functools.lru_cache(maxsize=4096)  # pure; a search over conventions asks for the same corners again
 def log_p_marginalized(distance: float, stat_error: float, syst_error: float) -> float:
     """log of E_delta[ Phi_bar((distance - delta) / stat_error) ], delta ~ N(0, syst_error^2).
 

@@ -1,0 +1,116 @@
+"""``claimcheck batch TABLE|FOLDER``: check every claim of a survey at once."""
+
+from __future__ import annotations
+
+import argparse
+import time
+from pathlib import Path
+
+HELP = ("check every claim in a table (CSV, TSV or Parquet, one claim per row) or a folder of claim "
+        "files, and adjust their p-values across the set (Holm, Benjamini-Hochberg)")
+FORMATS = {".csv": "csv", ".json": "json", ".html": "html", ".htm": "html"}
+
+
+def add_parser(sub) -> None:
+    p = sub.add_parser("batch", help=HELP, description=HELP + ". Columns are claim fields with dots "
+                       "for nesting (significance.sigma); a column starting with # is a note. Exit "
+                       "status: 1 when a claim fails a check, else 2 when a row could not be used, else 0.")
+    p.add_argument("table", help="a .csv, .tsv, .parquet table, or a folder of .yaml/.json claim files")
+    p.add_argument("--out", metavar="OUT",
+                   help="write one row per claim to OUT.csv, OUT.json or OUT.html")
+    p.add_argument("--jobs", metavar="N", type=_jobs,
+                   help="worker processes (default: one for small tables, every CPU from 2,000 claims)")
+
+
+def _jobs(text: str) -> int:
+    try:
+        n = int(text)
+    except ValueError:
+        n = 0
+    if n < 1:
+        raise argparse.ArgumentTypeError(f"must be a whole number of at least 1, got {text!r}")
+    return n
+
+
+class Progress:
+    """A one-line progress bar on a terminal's stderr; silent anywhere else
+    (a pipe, a file, a test) and for runs shorter than half a second."""
+
+    def __init__(self, stream, after: float = 0.5, every: float = 0.2):
+        isatty = getattr(stream, "isatty", None)
+        self.enabled = bool(isatty and isatty())
+        self.stream = stream
+        self.start = time.monotonic()
+        self.after = after
+        self.every = every
+        self.last = 0.0
+        self.width = 0
+
+    def __call__(self, done: int, total: int) -> None:
+        if not self.enabled:
+            return
+        now = time.monotonic()
+        if now - self.start < self.after or (done < total and now - self.last < self.every):
+            return
+        self.last = now
+        bar = 30
+        filled = bar * done // max(total, 1)
+        text = f"\rchecking claims [{'#' * filled}{'.' * (bar - filled)}] {done:,} of {total:,}"
+        self.width = max(self.width, len(text))
+        self.stream.write(text)
+        self.stream.flush()
+
+    def close(self) -> None:
+        if self.enabled and self.width:
+            self.stream.write("\r" + " " * self.width + "\r")
+            self.stream.flush()
+
+
+def _inputs(path: Path) -> list:
+    if path.is_dir():
+        return [p for p in path.iterdir() if p.is_file()]
+    return [path]
+
+
+def run(args, stdout, stderr) -> int:
+    from ..errors import OutputError
+    from ..output import refuse_overwriting_inputs, write_atomic
+    from ..render.survey_text import render_batch_text, render_problems
+    from ..survey import run_batch
+
+    fmt = None
+    inputs = _inputs(Path(args.table)) if Path(args.table).exists() else []
+    if args.out:
+        fmt = FORMATS.get(Path(args.out).suffix.lower())
+        if fmt is None:
+            raise OutputError(args.out, f"has the extension {Path(args.out).suffix or '(none)'!r}",
+                              "write the table to a file ending in .csv, .json or .html")
+        refuse_overwriting_inputs(args.out, inputs)
+        folder = Path(args.out).parent
+        if not folder.is_dir():  # say so before the work, not after
+            raise OutputError(args.out, "its folder does not exist", "create the folder first")
+    progress = Progress(stderr)
+    try:
+        result = run_batch(args.table, jobs=args.jobs, progress=progress)
+    finally:
+        progress.close()
+    if args.out:
+        if fmt == "csv":
+            from ..render.survey_text import render_batch_csv
+
+            text = render_batch_csv(result.frame)
+        elif fmt == "json":
+            from ..render.survey_text import render_batch_json
+
+            text = render_batch_json(result.frame, result.summary)
+        else:
+            from ..render.survey_html import render_batch_html
+
+            text = render_batch_html(result.frame, result.summary)
+        write_atomic(args.out, text, inputs)
+    if result.problems:
+        stderr.write(render_problems(result.problems))
+    stdout.write(render_batch_text(result.frame, result.summary))
+    if args.out:
+        stdout.write(f"wrote {len(result.frame):,} rows to {args.out}\n")
+    return result.exit_status

@@ -1,0 +1,189 @@
+"""``claimcheck plan``: how many samples (or circuits) a claim needs before the
+data are taken."""
+
+from __future__ import annotations
+
+import argparse
+import math
+
+HELP = ("plan an experiment: the samples (circuits, for heavy-output) needed to reach a significance "
+        "with a given power, the smallest detectable value, and a table over a range of counts")
+HEAVY_DEFAULTS = {"threshold": 2.0 / 3.0, "sigma": 2.0}  # Cross et al. (2019): h - 2 sigma > 2/3
+
+
+def _finite(text: str) -> float:
+    try:
+        x = float(text)
+    except ValueError:
+        x = math.nan
+    if not math.isfinite(x):
+        raise argparse.ArgumentTypeError(f"must be a finite number, got {text!r}")
+    return x
+
+
+def _positive(text: str) -> float:
+    x = _finite(text)
+    if x <= 0:
+        raise argparse.ArgumentTypeError(f"must be more than zero, got {text!r}")
+    return x
+
+
+def _not_negative(text: str) -> float:
+    x = _finite(text)
+    if x < 0:
+        raise argparse.ArgumentTypeError(f"must be zero or more, got {text!r}")
+    return x
+
+
+def _power(text: str) -> float:
+    x = _finite(text)
+    if not 0.5 <= x < 1:
+        raise argparse.ArgumentTypeError(f"must lie in [0.5, 1), such as 0.8 or 0.9; got {text!r}")
+    return x
+
+
+def _count(text: str) -> int:
+    try:
+        x = float(text)
+    except ValueError:
+        x = math.nan
+    if not (math.isfinite(x) and x >= 1 and x == math.floor(x)):
+        raise argparse.ArgumentTypeError(f"must be a whole number of at least 1 (such as 200 or 2.5e7), got {text!r}")
+    return int(x)
+
+
+def add_parser(sub) -> None:
+    from ..metrics import METRICS
+
+    p = sub.add_parser("plan", help=HELP, description=HELP + ". The estimate is taken to scatter by "
+                       "sqrt(v/N), v the metric model's per-sample variance at the expected value; a "
+                       "systematic error adds in quadrature and caps the significance at (F - T)/S.")
+    p.add_argument("--metric", required=True, choices=list(METRICS), help="the metric model")
+    p.add_argument("--fidelity", required=True, type=_finite, metavar="F",
+                   help="the value you expect to measure (fidelity, heavy-output probability, proportion, mean)")
+    p.add_argument("--threshold", type=_finite, metavar="T",
+                   help="the value the claim must exceed (heavy-output: 2/3 unless given)")
+    p.add_argument("--sigma", type=_positive, metavar="Z",
+                   help="the significance the claim must reach (heavy-output: 2 unless given)")
+    p.add_argument("--power", type=_power, default=0.8, metavar="P",
+                   help="wanted probability of reaching Z (default 0.8)")
+    p.add_argument("--syst", type=_not_negative, default=0.0, metavar="S",
+                   help="systematic error, added in quadrature (default 0)")
+    p.add_argument("--circuits", type=_count, metavar="K",
+                   help="heavy-output: the circuits you have; also report what they can detect")
+    p.add_argument("--samples", type=_count, metavar="N",
+                   help="the samples you have; also report what they can detect")
+    p.add_argument("--qubits", type=_count, metavar="Q", help="linear-xeb: qubits, for the exact finite-D variance")
+    p.add_argument("--sd", type=_positive, metavar="SD", help="metric mean: the per-sample standard deviation")
+    p.add_argument("--json", action="store_true", help="print the plan as JSON")
+
+
+def _fail(option: str, problem: str, allowed: str):
+    from ..errors import ClaimcheckError
+
+    raise ClaimcheckError("claimcheck plan", problem, allowed, path=option)
+
+
+def run(args, stdout, stderr) -> int:
+    from ..metrics import METRICS, ModelInputs
+    from ..stats.planning import pass_probability, plan_experiment, smallest_detectable
+    from ..stats.porter_thomas import dimension_of
+
+    model = METRICS[args.metric]
+    count_name = model.count_field
+    other = "samples" if count_name == "circuits" else "circuits"
+    if getattr(args, other) is not None:
+        _fail(f"--{other}", f"does not apply: {args.metric} counts {count_name}", f"give --{count_name}")
+    threshold, sigma = args.threshold, args.sigma
+    if args.metric == "heavy-output":
+        threshold = HEAVY_DEFAULTS["threshold"] if threshold is None else threshold
+        sigma = HEAVY_DEFAULTS["sigma"] if sigma is None else sigma
+    for option, value in (("--threshold", threshold), ("--sigma", sigma)):
+        if value is None:
+            _fail(option, f"is needed for {args.metric}", "give the value the plan must reach")
+    if args.metric == "mean" and args.sd is None:
+        _fail("--sd", "is needed for the mean model (the per-sample standard deviation)", "give --sd")
+    if args.qubits is not None and args.metric != "linear-xeb":
+        _fail("--qubits", f"enters only the linear-xeb variance, not {args.metric}'s", "leave it out")
+    if not model.lowest <= args.fidelity <= model.highest:
+        _fail("--fidelity", f"{args.fidelity:g} lies outside [{model.lowest:g}, {model.highest:g}], "
+              f"the range of a {model.summary}", "give a value the metric can take")
+    inputs = ModelInputs(dimension=dimension_of(args.qubits) if args.metric == "linear-xeb" else None,
+                         sd=args.sd)
+
+    def variance_at(value: float) -> float:
+        return model.variance(value, inputs)
+
+    given = getattr(args, count_name)
+    plan = plan_experiment(args.fidelity, threshold, variance_at, sigma, args.power, args.syst,
+                           highest=model.highest, counts=(given,) if given else ())
+    at = None
+    if given:
+        at = {count_name: given,
+              "smallest_detectable": smallest_detectable(threshold, variance_at, given, sigma, args.power,
+                                                         args.syst, model.highest),
+              "pass_probability": pass_probability(args.fidelity, threshold, plan.variance, given, sigma,
+                                                   args.syst)}
+    if args.json:
+        from ..render.json import dumps
+
+        stdout.write(dumps(_as_dict(args, plan, count_name, at)))
+    else:
+        stdout.write(_as_text(args, plan, count_name, at))
+    return 0
+
+
+def _as_dict(args, plan, count_name, at) -> dict:
+    return {
+        "metric": args.metric,
+        "fidelity": plan.value,
+        "threshold": plan.threshold,
+        "target_sigma": plan.target_sigma,
+        "power": plan.power,
+        "syst": plan.syst,
+        count_name: plan.count,
+        "reachable": plan.reachable,
+        "best_sigma": plan.best_sigma if math.isfinite(plan.best_sigma) else None,
+        "reason": plan.reason or None,
+        "per_sample_variance": plan.variance,
+        "at": at,
+        "table": [{count_name: r.count, "standard_error": r.standard_error, "expected_sigma": r.expected_sigma,
+                   "pass_probability": r.pass_probability, "smallest_detectable": r.smallest_detectable}
+                  for r in plan.table],
+    }
+
+
+def _g(x, digits: int = 4) -> str:
+    if x is None or (isinstance(x, float) and not math.isfinite(x)):
+        return "none"
+    return f"{x:.{digits}g}"
+
+
+def _as_text(args, plan, count_name, at) -> str:
+    syst = f"systematic {_g(plan.syst)} in quadrature" if plan.syst else "no systematic"
+    lines = [f"Plan for {args.metric}: expected value {_g(plan.value)} against threshold {_g(plan.threshold)}, "
+             f"{_g(plan.target_sigma)} sigma with power {_g(plan.power)}, {syst}"]
+    if plan.reachable:
+        row = next(r for r in plan.table if r.count == plan.count)
+        lines.append(f"  {count_name} needed: {plan.count:,} (standard error {_g(row.standard_error, 3)}, "
+                     f"expected {_g(row.expected_sigma, 3)} sigma, passes in {100 * row.pass_probability:.1f}% "
+                     "of such experiments)")
+        if plan.syst:
+            lines.append(f"  best achievable with this systematic: {_g(plan.best_sigma, 3)} sigma")
+    else:
+        lines.append(f"  {plan.target_sigma:g} sigma cannot be reached at any number of {count_name}: {plan.reason}.")
+        if plan.syst and math.isfinite(plan.best_sigma):
+            lines.append(f"  best achievable sigma: {_g(plan.best_sigma, 3)} (with unlimited {count_name})")
+    if at is not None:
+        lines.append(f"  with {at[count_name]:,} {count_name}: the smallest value reaching "
+                     f"{_g(plan.target_sigma)} sigma with power {_g(plan.power)} is "
+                     f"{_g(at['smallest_detectable'], 5)}; the expected value passes with probability "
+                     f"{_g(at['pass_probability'], 3)}")
+    lines += ["", f"  {count_name:>12}  {'std error':>10}  {'expected sigma':>14}  {'P(pass)':>8}  smallest detectable"]
+    for r in plan.table:
+        lines.append(f"  {r.count:>12,}  {_g(r.standard_error, 3):>10}  {_g(r.expected_sigma, 3):>14}  "
+                     f"{_g(r.pass_probability, 3):>8}  {_g(r.smallest_detectable, 5)}")
+    lines += ["", f"The estimate is taken to scatter by sqrt(v/N), v = {_g(plan.variance)} the {args.metric} "
+              "per-sample variance at the expected value; P(pass) is the chance that (estimate - threshold) / "
+              "sqrt(se^2 + syst^2) reaches the target."]
+    return "\n".join(lines) + "\n"

@@ -1,0 +1,76 @@
+"""A survey's results as one self-contained HTML page: a short summary and a
+table, one row per claim.  No scripts, no outside files; every string from
+the table is escaped."""
+
+from __future__ import annotations
+
+import math
+from html import escape
+
+from .survey_text import CAUTION, _plural, frame_records
+
+_COLUMNS = (
+    ("source", "source"), ("title", "claim"), ("verdict", "verdict"), ("failed_checks", "flagged checks"),
+    ("sigma_printed", "sigma printed"), ("sigma_recomputed", "sigma recomputed"),
+    ("p_recomputed", "p recomputed"), ("p_holm", "p Holm"), ("p_bh", "p BH"),
+    ("required_sigma", "required sigma"), ("clears_required", "clears"), ("clears_holm", "after Holm"),
+    ("clears_bh", "after BH"), ("problem", "why unusable"),
+)
+
+_STYLE = """
+body { font-family: system-ui, sans-serif; margin: 2em; color: #222; }
+table { border-collapse: collapse; font-size: 0.9em; }
+th, td { border: 1px solid #ccc; padding: 0.25em 0.5em; text-align: left; vertical-align: top; }
+th { background: #f0f0f0; }
+td.num { text-align: right; font-variant-numeric: tabular-nums; }
+tr.inconsistent td { background: #fff1e6; }
+tr.unusable td { background: #f4f4f4; color: #666; }
+p.caution { font-style: italic; }
+"""
+
+
+def _cell(key: str, value) -> str:
+    if value is None:
+        return '<td></td>'
+    if isinstance(value, bool):
+        return f"<td>{'yes' if value else 'no'}</td>"
+    if isinstance(value, float):
+        if not math.isfinite(value):
+            return '<td class="num"></td>'
+        text = f"{value:.4g}" if key.startswith("sigma") or key == "required_sigma" else f"{value:.3g}"
+        return f'<td class="num">{escape(text)}</td>'
+    text = str(value)
+    if key == "failed_checks":
+        text = text.replace(";", ", ")
+    return f"<td>{escape(text)}</td>"
+
+
+def render_batch_html(frame, summary: dict) -> str:
+    v = summary["verdicts"]
+    clear = summary["clear_required_sigma"]
+    facts = [
+        f"{_plural(summary['rows'], summary.get('unit', 'row'))}; {_plural(summary['checked'], 'claim')} checked; "
+        f"{_plural(summary['unusable'], summary.get('unit', 'row'))} could not be used.",
+        f"Verdicts: {v['consistent']:,} consistent, {v['inconsistent']:,} inconsistent, "
+        f"{v['incomplete']:,} incomplete.",
+        f"Of {summary['with_required_sigma']:,} claims that state a required sigma, "
+        f"{clear['recomputed']:,} clear it as recomputed, {clear['holm']:,} after Holm and "
+        f"{clear['bh']:,} after Benjamini-Hochberg adjustment across {summary['tested']:,} "
+        "recomputed p-values.",
+    ]
+    head = "".join(f"<th>{escape(label)}</th>" for _, label in _COLUMNS)
+    body = []
+    for row in frame_records(frame):
+        verdict = str(row.get("verdict") or "")
+        cells = "".join(_cell(key, row.get(key)) for key, _ in _COLUMNS)
+        body.append(f'<tr class="{escape(verdict, quote=True)}">{cells}</tr>')
+    title = f"claimcheck batch: {summary['table']}"
+    return (
+        "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
+        f"<title>{escape(title)}</title>\n<style>{_STYLE}</style>\n</head>\n<body>\n"
+        f"<h1>{escape(title)}</h1>\n"
+        + "".join(f"<p>{escape(f)}</p>\n" for f in facts)
+        + f'<p class="caution">{escape(CAUTION)}</p>\n'
+        + f"<table>\n<thead><tr>{head}</tr></thead>\n<tbody>\n" + "\n".join(body) + "\n</tbody>\n</table>\n"
+        + "</body>\n</html>\n"
+    )

@@ -1,0 +1,104 @@
+"""A survey's results as terminal text, CSV and JSON.  Pure functions of the
+summary frame and counts; the statistics were computed before."""
+
+from __future__ import annotations
+
+import math
+
+from .json import dumps
+
+SHOW_AT_MOST = 20
+CAUTION = ("A flag is a question for the authors, not proof of an error: claimcheck checks the "
+           "arithmetic and the stated conventions, not the experiment.")
+
+
+def _plural(n: int, one: str, many: str | None = None) -> str:
+    return f"{n:,} {one if n == 1 else (many or one + 's')}"
+
+
+def render_batch_text(frame, summary: dict) -> str:
+    """The summary a person reads first: counts, the adjusted tally, and the
+    claims that were flagged."""
+    v = summary["verdicts"]
+    unit = summary.get("unit", "row")
+    lines = [f"{summary['table']}: {_plural(summary['rows'], unit)}; "
+             f"{_plural(summary['checked'], 'claim')} checked"
+             + (f", {_plural(summary['unusable'], unit)} could not be used" if summary["unusable"] else ""),
+             f"verdicts: {v['consistent']:,} consistent, {v['inconsistent']:,} inconsistent, "
+             f"{v['incomplete']:,} incomplete"]
+    need = summary["with_required_sigma"]
+    clear = summary["clear_required_sigma"]
+    if need:
+        lines.append(f"required sigma: {_plural(need, 'claim')} state one and have a recomputed significance; "
+                     f"{clear['recomputed']:,} clear it as recomputed, {clear['holm']:,} after Holm and "
+                     f"{clear['bh']:,} after Benjamini-Hochberg adjustment across "
+                     f"{_plural(summary['tested'], 'recomputed p-value')}")
+    elif summary["tested"]:
+        lines.append(f"adjusted across {_plural(summary['tested'], 'recomputed p-value')}; "
+                     "no claim states a required_sigma to hold them against")
+    flagged = frame[frame["verdict"] == "inconsistent"]
+    if len(flagged):
+        lines += ["", "inconsistent:"]
+        width = max(len(s) for s in flagged["source"].head(SHOW_AT_MOST))
+        for source, title, failed in flagged[["source", "title", "failed_checks"]].head(SHOW_AT_MOST).itertuples(
+                index=False, name=None):
+            short = title if len(title) <= 60 else title[:57] + "..."
+            lines.append(f"  {source:<{width}}  {short}  [{failed.replace(';', ', ')}]")
+        if len(flagged) > SHOW_AT_MOST:
+            lines.append(f"  ... and {len(flagged) - SHOW_AT_MOST:,} more (write them all with --out)")
+    if v["inconsistent"]:
+        lines += ["", CAUTION]
+    return "\n".join(lines) + "\n"
+
+
+def render_problems(problems, limit: int = SHOW_AT_MOST) -> str:
+    """The rows that could not be used, one line each (at most ``limit``)."""
+    lines = list(problems[:limit])
+    if len(problems) > limit:
+        lines.append(f"... and {len(problems) - limit:,} more that could not be used "
+                     "(each is in the table written with --out)")
+    return "".join(line + "\n" for line in lines)
+
+
+def frame_records(frame) -> list[dict]:
+    """Rows as plain dicts: NaN and missing become None."""
+    out = []
+    columns = list(frame.columns)
+    for values in frame.astype(object).itertuples(index=False, name=None):
+        row = {}
+        for key, value in zip(columns, values):
+            if value is None or (isinstance(value, float) and not math.isfinite(value)):
+                value = None
+            elif type(value).__name__ == "NAType":
+                value = None
+            elif hasattr(value, "item"):  # numpy scalar
+                value = value.item()
+            row[key] = value
+        out.append(row)
+    return out
+
+
+def render_batch_json(frame, summary: dict) -> str:
+    return dumps({"summary": summary, "claims": frame_records(frame)})
+
+
+def _csv_texts(series) -> list[str]:
+    """One column's cells: floats as their shortest round-trip text, missing
+    values (NaN, NA) as empty cells."""
+    values = series.astype(object).tolist()
+    if series.dtype.kind == "f":
+        return [repr(v) if v == v else "" for v in values]
+    return ["" if v is None or type(v).__name__ == "NAType" else str(v) for v in values]
+
+
+def render_batch_csv(frame) -> str:
+    # The csv module over pre-formatted columns: a third faster than DataFrame.to_csv for
+    # 100,000 claims, and the same text.
+    import csv
+    import io
+
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\n")
+    writer.writerow(frame.columns)
+    writer.writerows(zip(*(_csv_texts(frame[c]) for c in frame.columns)))
+    return buffer.getvalue()

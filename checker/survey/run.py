@@ -1,0 +1,298 @@
+"""Checking a whole survey: every check on every claim, then, across the set,
+the recomputed significance of each claim and its Holm and Benjamini-Hochberg
+adjusted p-values.
+
+The per-claim work (reading a row, the schema, the checks) runs in worker
+processes for large tables; the arithmetic that spans the set (z, p and their
+adjustment) runs once over whole columns with numpy.  A row that cannot be
+used becomes a row with verdict ``unusable`` and the reason, and the batch
+goes on.
+"""
+
+from __future__ import annotations
+
+import math
+import os
+from dataclasses import dataclass, field
+from typing import Any, Callable, Sequence
+
+from ..checks import run_checks
+from ..checks.common import count_for_error, metric_of, model_inputs
+from ..claim import claim_from_document, read_claim
+from ..claim.model import build_claim
+from ..errors import ClaimcheckError
+from .columns import ColumnPlan
+from .table import Folder, Row, Table, read_source
+
+UNUSABLE = "unusable"
+VERDICTS = ("consistent", "inconsistent", "incomplete", UNUSABLE)
+PARALLEL_FROM = 2000  # rows: below this one process is faster than starting workers
+CHUNK = 1000
+
+# What a worker sends back for each claim, in this order.
+RECORD = ("source", "title", "claim_source", "metric", "verdict", "failed_checks", "flagged", "noted",
+          "agree", "not_checked", "sigma_printed", "p_printed", "required_sigma", "estimate",
+          "threshold", "stat_error", "interval_low", "interval_high", "interval_level",
+          "threshold_error", "error_at_threshold", "syst_error", "two_sided", "problem")
+
+# The summary table's columns, in order (DESIGN.md fixes the first names).
+COLUMNS = ("source", "title", "verdict", "failed_checks", "sigma_recomputed", "p_recomputed",
+           "p_holm", "p_bh", "required_sigma", "clears_required", "clears_holm", "clears_bh",
+           "sigma_holm", "sigma_bh", "sigma_printed", "p_printed", "metric", "claim_source",
+           "flagged", "noted", "agree", "not_checked", "problem")
+
+NAN = math.nan
+
+
+@dataclass(frozen=True)
+class BatchResult:
+    """The outcome of one batch.
+
+    Attributes
+    ----------
+    name : str
+        The table or folder.
+    frame : pandas.DataFrame
+        One row per claim, columns :data:`COLUMNS`.
+    summary : dict
+        Counts across the set (see :func:`summarize`).
+    problems : tuple of str
+        One line per row that could not be used.
+    """
+
+    name: str
+    frame: Any
+    summary: dict
+    problems: tuple = field(default_factory=tuple)
+
+    @property
+    def exit_status(self) -> int:
+        """1 when a claim failed a check; otherwise 2 when a row could not be
+        used; otherwise 0."""
+        if self.summary["verdicts"]["inconsistent"]:
+            return 1
+        return 2 if self.summary["unusable"] else 0
+
+
+def _value(rep) -> float:
+    return rep.value if rep is not None else NAN
+
+
+def claim_record(claim, report, source: str) -> tuple:
+    """The record of one checked claim: its verdict and the central values the
+    set-wide arithmetic needs."""
+    sig = claim.significance
+    counts = report.counts()
+    iv = claim.interval
+    threshold_error = NAN
+    at_threshold = sig.error_at == "threshold"
+    if at_threshold and claim.threshold is not None:
+        n = count_for_error(claim)
+        model = metric_of(claim)
+        if n is not None and not any(getattr(claim, f) is None for f in model.needs()):
+            se = model.standard_error(claim.threshold.value, n.value, model_inputs(claim))
+            threshold_error = se if se is not None else NAN
+    syst = _value(claim.syst_error) if sig.systematics != "none" else 0.0
+    return (source, claim.title, claim.source or "", claim.metric, report.verdict,
+            ";".join(report.failed_checks()), counts["fail"], counts["warn"], counts["pass"],
+            counts["skip"], sig.sigma.text if sig.sigma else "", sig.p_value.text if sig.p_value else "",
+            _value(sig.required_sigma), claim.estimate.value, _value(claim.threshold),
+            _value(claim.stat_error), _value(iv.low) if iv else NAN, _value(iv.high) if iv else NAN,
+            _value(iv.level) if iv else NAN, threshold_error, at_threshold,
+            0.0 if math.isnan(syst) else syst, sig.sided == "two", "")
+
+
+def unusable_record(source: str, problem: str, title: str = "") -> tuple:
+    return (source, title, "", "", UNUSABLE, "", 0, 0, 0, 0, "", "", NAN, NAN, NAN, NAN, NAN, NAN, NAN,
+            NAN, False, 0.0, False, problem)
+
+
+def _internal(exc: Exception) -> str:
+    return (f"claimcheck could not check this claim (internal error {type(exc).__name__}: {exc}); "
+            "please report it with the row")
+
+
+def check_row(plan: ColumnPlan, row: Row) -> tuple:
+    """Read, validate, check and summarize one table row."""
+    source = f"row {row.number}"
+    name = f"{plan.table} {source}"
+    title = ""
+    try:
+        doc, quick = plan.document(row.cells, name, row.line)
+        title = doc.data.get("title") if isinstance(doc.data.get("title"), str) else ""
+        # A row that passed the quick schema test is valid; any other goes
+        # through the full validator for the message ``check`` would print.
+        claim = build_claim(doc) if quick else claim_from_document(doc)
+        return claim_record(claim, run_checks(claim), source)
+    except ClaimcheckError as exc:
+        return unusable_record(source, exc.one_line(), title)
+    except Exception as exc:  # a bug in one claim's checks must not sink the whole survey
+        return unusable_record(source, f"{name}: {_internal(exc)}", title)
+
+
+def check_file(path: str) -> tuple:
+    try:
+        claim = read_claim(path)
+        return claim_record(claim, run_checks(claim), path)
+    except ClaimcheckError as exc:
+        return unusable_record(path, exc.one_line())
+    except Exception as exc:
+        return unusable_record(path, f"{path}: {_internal(exc)}")
+
+
+# --- worker processes ----------------------------------------------------
+
+_WORKER: dict = {}
+
+
+def _start_worker(header, name) -> None:
+    _WORKER["plan"] = ColumnPlan(header, name) if header is not None else None
+
+
+def _work(chunk) -> list:
+    plan = _WORKER["plan"]
+    if plan is None:
+        return [check_file(p) for p in chunk]
+    return [check_row(plan, r) for r in chunk]
+
+
+def available_cpus() -> int:
+    try:
+        return len(os.sched_getaffinity(0))
+    except AttributeError:  # not on every platform
+        return os.cpu_count() or 1
+
+
+def _records(source: Table | Folder, jobs: int | None, progress) -> list:
+    items: Sequence = source.rows if isinstance(source, Table) else source.files
+    header = source.header if isinstance(source, Table) else None
+    plan = ColumnPlan(header, source.name) if header is not None else None  # header problems: before any work
+    total = len(items)
+    if jobs is None:
+        jobs = 1 if total < PARALLEL_FROM else min(available_cpus(), 8)
+    jobs = max(1, min(int(jobs), max(1, total // 2)))
+    chunks = [items[i:i + CHUNK] for i in range(0, total, CHUNK)]
+    out: list = []
+    if jobs == 1:
+        for chunk in chunks:
+            if plan is not None:
+                out.extend(check_row(plan, r) for r in chunk)
+            else:
+                out.extend(check_file(p) for p in chunk)
+            if progress:
+                progress(len(out), total)
+        return out
+    import multiprocessing
+    from concurrent.futures import ProcessPoolExecutor
+
+    methods = multiprocessing.get_all_start_methods()
+    context = multiprocessing.get_context("fork" if "fork" in methods else None)
+    with ProcessPoolExecutor(max_workers=jobs, mp_context=context, initializer=_start_worker,
+                             initargs=(header, source.name)) as pool:
+        for records in pool.map(_work, chunks):
+            out.extend(records)
+            if progress:
+                progress(len(out), total)
+    return out
+
+
+# --- across the set ------------------------------------------------------
+
+def summarize(records: list, name: str, unit: str = "row"):
+    """The summary frame and the set-wide counts from the per-claim records
+    (``unit`` is what one record came from: a table ``row`` or a ``file``)."""
+    import numpy as np
+    import pandas as pd
+
+    from ..stats.adjust import adjust_log_p_values
+    from ..stats.columnwise import error_from_interval, sigma_from_log_p, significance_columns
+
+    col = dict(zip(RECORD, (list(c) for c in zip(*records)))) if records else {k: [] for k in RECORD}
+    f = {k: np.asarray(col[k], dtype=float) for k in
+         ("estimate", "threshold", "stat_error", "interval_low", "interval_high", "interval_level",
+          "threshold_error", "syst_error", "required_sigma")}
+    at_threshold = np.asarray(col["error_at_threshold"], dtype=bool)
+    two = np.asarray(col["two_sided"], dtype=bool)
+    # The error the significance divides by: the printed one, or else the
+    # interval's; the model's at the threshold when the claim says so.
+    from_interval = error_from_interval(f["interval_low"], f["interval_high"], f["interval_level"])
+    stat = np.where(at_threshold, f["threshold_error"],
+                    np.where(np.isnan(f["stat_error"]), from_interval, f["stat_error"]))
+    sig = significance_columns(f["estimate"], f["threshold"], stat, f["syst_error"], two)
+    adjusted = adjust_log_p_values(sig.log_p)
+    sigma_holm = sigma_from_log_p(adjusted.log_p_holm, two)
+    sigma_bh = sigma_from_log_p(adjusted.log_p_bh, two)
+    need = f["required_sigma"]
+
+    def clears(sigma):
+        known = np.isfinite(need) & ~np.isnan(sigma)
+        return known, np.where(known, sigma >= need, False)
+
+    known, raw = clears(sig.sigma)
+    _, holm = clears(sigma_holm)
+    _, bh = clears(sigma_bh)
+
+    def maybe(flag):
+        # True / False, and missing where the claim states no required_sigma
+        # or has no recomputed significance.
+        return pd.arrays.BooleanArray(np.asarray(flag, dtype=bool), ~known)
+
+    frame = pd.DataFrame({
+        "source": col["source"], "title": col["title"], "verdict": col["verdict"],
+        "failed_checks": col["failed_checks"], "sigma_recomputed": sig.sigma, "p_recomputed": sig.p,
+        "p_holm": adjusted.p_holm, "p_bh": adjusted.p_bh, "required_sigma": need,
+        "clears_required": maybe(raw), "clears_holm": maybe(holm), "clears_bh": maybe(bh),
+        "sigma_holm": sigma_holm, "sigma_bh": sigma_bh,
+        "sigma_printed": col["sigma_printed"], "p_printed": col["p_printed"], "metric": col["metric"],
+        "claim_source": col["claim_source"],
+        "flagged": np.asarray(col["flagged"], dtype=int), "noted": np.asarray(col["noted"], dtype=int),
+        "agree": np.asarray(col["agree"], dtype=int), "not_checked": np.asarray(col["not_checked"], dtype=int),
+        "problem": col["problem"],
+    }, columns=list(COLUMNS))
+    verdicts = {v: int(sum(1 for x in col["verdict"] if x == v)) for v in VERDICTS}
+    summary = {
+        "table": name,
+        "unit": unit,
+        "rows": len(records),
+        "checked": len(records) - verdicts[UNUSABLE],
+        "unusable": verdicts[UNUSABLE],
+        "verdicts": {k: verdicts[k] for k in VERDICTS[:3]},
+        "tested": adjusted.tested,
+        "with_required_sigma": int(known.sum()),
+        "clear_required_sigma": {"recomputed": int(raw[known].sum()), "holm": int(holm[known].sum()),
+                                 "bh": int(bh[known].sum())},
+    }
+    problems = tuple(p for p in col["problem"] if p)
+    return frame, summary, problems
+
+
+def run_batch(source: Any, jobs: int | None = None,
+              progress: Callable[[int, int], None] | None = None) -> BatchResult:
+    """Check every claim of a survey and adjust their p-values across the set.
+
+    Parameters
+    ----------
+    source : str, Path, pandas.DataFrame or list of mappings
+        A CSV/TSV/Parquet table (one claim per row, columns named after the
+        claim vocabulary with dots for nesting), a folder of claim files, a
+        DataFrame with such columns, or a list of claim mappings.
+    jobs : int, optional
+        Worker processes; by default one for small tables and every available
+        CPU (at most 8) from 2,000 claims up.
+    progress : callable, optional
+        Called as ``progress(done, total)`` after each chunk of claims.
+
+    Returns
+    -------
+    BatchResult
+
+    Raises
+    ------
+    InputFileError, DataError
+        When the table as a whole cannot be used (missing, not a table, a
+        column outside the vocabulary).  Single bad rows never raise.
+    """
+    table = read_source(source)
+    records = _records(table, jobs, progress)
+    frame, summary, problems = summarize(records, table.name, "row" if isinstance(table, Table) else "file")
+    return BatchResult(table.name, frame, summary, problems)

@@ -1,0 +1,227 @@
+"""Reading a survey: a CSV, TSV or Parquet table with one claim per row, a
+folder of claim files, a pandas DataFrame, or a list of mappings.
+
+Every table becomes a header and rows of cell texts.  CSV cells are read as
+the exact text written (no type guessing), so "4.20" keeps its three printed
+digits.  Parquet and DataFrame cells that are numbers are written out as
+their shortest round-trip text, as the notebook API does for a mapping;
+store numbers as text there to keep their printed precision.
+
+Rows are numbered from 1 for the first claim below the header; lines before
+the header that begin with ``#`` are comments.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import math
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any, Iterable, Mapping, NamedTuple, Sequence
+
+from ..errors import DataError, InputFileError
+
+TABLE_SUFFIXES = {".csv": ",", ".tsv": "\t", ".parquet": None, ".pq": None}
+CLAIM_SUFFIXES = (".yaml", ".yml", ".json")
+MAX_TABLE_BYTES = 2_000_000_000
+
+
+class Row(NamedTuple):
+    """One table row: its number (1 = first claim), its line in the file (CSV
+    only) and its cells' texts.  A named tuple: 100,000 of them are made and
+    sent to worker processes."""
+
+    number: int
+    line: int | None
+    cells: tuple
+
+
+@dataclass(frozen=True)
+class Table:
+    name: str
+    header: tuple
+    rows: tuple
+
+
+@dataclass(frozen=True)
+class Folder:
+    name: str
+    files: tuple
+
+
+def cell_text(value: Any) -> str:
+    """The text of one Parquet or DataFrame cell; "" for a missing value."""
+    if value is None or type(value).__name__ in ("NAType", "NaTType"):
+        return ""
+    if isinstance(value, str):
+        return value
+    kind = type(value).__name__
+    if isinstance(value, bool) or kind in ("bool_", "bool"):
+        return "true" if bool(value) else "false"
+    if isinstance(value, float) or kind.startswith("float"):
+        # str() of a Python or numpy float is its shortest round-trip text
+        # (numpy's float32 included, where repr(float(x)) would add digits).
+        return "" if math.isnan(float(value)) else str(value)
+    if isinstance(value, int) or kind.startswith(("int", "uint")):
+        return str(int(value))
+    return str(value)
+
+
+def read_source(source: Any) -> Table | Folder:
+    """A path (table or folder), a DataFrame, or a list of mappings.
+
+    Raises
+    ------
+    InputFileError
+        A missing or unreadable file, an unknown file type, an empty table.
+    """
+    if isinstance(source, (str, Path)):
+        path = Path(source)
+        if not path.exists():
+            raise InputFileError(str(source), "no such file or folder",
+                                 "give a CSV or Parquet table, or a folder of claim files")
+        if path.is_dir():
+            return read_folder(path)
+        return read_table_file(path)
+    if hasattr(source, "columns") and hasattr(source, "itertuples"):
+        return table_from_frame(source, "<DataFrame>")
+    if isinstance(source, Sequence) and not isinstance(source, (bytes, bytearray)):
+        return table_from_mappings(source, "<mappings>")
+    raise InputFileError(repr(type(source).__name__), "is not a table",
+                         "give a path, a pandas DataFrame or a list of mappings")
+
+
+def read_folder(path: Path) -> Folder:
+    files = tuple(sorted(str(p) for p in path.iterdir() if p.is_file() and p.suffix.lower() in CLAIM_SUFFIXES))
+    if not files:
+        raise InputFileError(str(path), "holds no claim files",
+                             "a folder for batch holds .yaml, .yml or .json claim files")
+    return Folder(str(path), files)
+
+
+def read_table_file(path: Path) -> Table:
+    suffix = path.suffix.lower()
+    if suffix not in TABLE_SUFFIXES:
+        raise InputFileError(str(path), f"has the extension {path.suffix or '(none)'!r}",
+                             "a table for batch ends in .csv, .tsv, .parquet or .pq (or give a folder)")
+    if TABLE_SUFFIXES[suffix] is None:
+        return _read_parquet(path)
+    try:
+        with open(path, "rb") as handle:  # read-only, always
+            raw = handle.read(MAX_TABLE_BYTES + 1)
+    except OSError as exc:
+        raise InputFileError(str(path), f"cannot be read ({exc.strerror or exc})",
+                             "check the path and its permissions") from None
+    if len(raw) > MAX_TABLE_BYTES:
+        raise InputFileError(str(path), f"is larger than {MAX_TABLE_BYTES:,} bytes", "split the table")
+    if b"\x00" in raw:
+        raise InputFileError(str(path), "holds binary data (a NUL byte)", "a CSV table is UTF-8 text")
+    try:
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputFileError(str(path), f"is not UTF-8 text (byte {exc.start})", "save the table as UTF-8") from None
+    return parse_delimited(text, str(path), TABLE_SUFFIXES[suffix])
+
+
+def parse_delimited(text: str, name: str, delimiter: str = ",") -> Table:
+    """A CSV (or TSV) text: comment lines, a header, then one claim per row.
+
+    The csv module rather than pandas.read_csv: a row with too many or too
+    few cells must become one reported bad row (with its line) while the rest
+    are checked, where read_csv stops the whole table; and every cell stays
+    the text written.
+    """
+    handle = io.StringIO(text, newline="")
+    skipped = 0
+    # Comment lines before the header (a note such as "invented data").
+    while True:
+        position = handle.tell()
+        line = handle.readline()
+        if not line:
+            break
+        if line.lstrip().startswith("#") or not line.strip():
+            skipped += 1
+            continue
+        handle.seek(position)
+        break
+    reader = csv.reader(handle, delimiter=delimiter, strict=True)
+    try:
+        header = next(reader, None)
+        if header is None:
+            raise InputFileError(name, "holds no header and no claims",
+                                 "the first row names the fields: title, metric, estimate, ...")
+        if len(header) == 1 and delimiter == "," and (";" in header[0] or "\t" in header[0]):
+            raise InputFileError(name, "has a single column whose name holds ';' or tabs",
+                                 "separate cells with commas (or name a tab-separated table .tsv)",
+                                 line=skipped + 1)
+        rows = []
+        number = 0
+        start = skipped + reader.line_num + 1
+        for cells in reader:
+            line = start
+            start = skipped + reader.line_num + 1
+            if not cells or all(not c.strip() for c in cells):
+                continue  # a blank line is not a claim
+            number += 1
+            rows.append(Row(number, line, tuple(cells)))
+    except csv.Error as exc:
+        raise InputFileError(name, f"is not a well-formed table ({exc})",
+                             "fix the quoting near that line", line=skipped + reader.line_num) from None
+    if not rows:
+        raise InputFileError(name, "holds a header but no claims", "give one claim per row below the header")
+    return Table(name, tuple(header), tuple(rows))
+
+
+def _read_parquet(path: Path) -> Table:
+    try:
+        import pandas as pd
+
+        frame = pd.read_parquet(path)
+    except ImportError:
+        raise InputFileError(str(path), "is a Parquet file, and reading one needs pyarrow",
+                             "pip install pyarrow (or save the table as CSV)") from None
+    except Exception as exc:  # pyarrow raises its own many kinds
+        raise InputFileError(str(path), f"cannot be read as Parquet ({type(exc).__name__}: {exc})",
+                             "check that the file is a Parquet table") from None
+    return table_from_frame(frame, str(path))
+
+
+def table_from_frame(frame, name: str) -> Table:
+    header = tuple(str(c) for c in frame.columns)
+    rows = tuple(Row(i + 1, None, tuple(cell_text(v) for v in values))
+                 for i, values in enumerate(frame.itertuples(index=False, name=None)))
+    if not rows:
+        raise InputFileError(name, "holds no claims", "give one claim per row")
+    return Table(name, header, rows)
+
+
+def _flatten(mapping: Mapping, prefix: str, out: dict) -> None:
+    for key, value in mapping.items():
+        name = f"{prefix}{key}"
+        if isinstance(value, Mapping):
+            _flatten(value, name + ".", out)
+        elif isinstance(value, (list, tuple)):
+            _flatten({str(i): v for i, v in enumerate(value)}, name + ".", out)
+        else:
+            out[name] = cell_text(value)
+
+
+def table_from_mappings(mappings: Iterable[Mapping], name: str) -> Table:
+    """Claims as mappings (nested, or with dotted keys) become a table."""
+    flat = []
+    for i, mapping in enumerate(mappings):
+        if not isinstance(mapping, Mapping):
+            raise InputFileError(name, f"entry {i + 1} is a {type(mapping).__name__}, not a mapping",
+                                 "give one mapping of claim fields per claim")
+        row: dict = {}
+        _flatten(mapping, "", row)
+        flat.append(row)
+    if not flat:
+        raise InputFileError(name, "holds no claims", "give one mapping per claim")
+    header: dict = {}
+    for row in flat:
+        header.update(dict.fromkeys(row))
+    columns = tuple(header)
+    rows = tuple(Row(i + 1, None, tuple(row.get(c, "") for c in columns)) for i, row in enumerate(flat))
+    return Table(name, columns, rows)

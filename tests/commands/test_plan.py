@@ -1,0 +1,94 @@
+"""``claimcheck plan``: the JSON contract, worked cases, unreachable targets, bad options."""
+
+import io
+import json
+
+import pytest
+
+from checker.cli import run
+
+
+def claimcheck(*argv):
+    out, err = io.StringIO(), io.StringIO()
+    status = run(list(map(str, argv)), out, err)
+    return status, out.getvalue(), err.getvalue()
+
+
+def plan_json(*argv):
+    status, out, err = claimcheck("plan", *argv, "--json")
+    assert status == 0, err
+
+    def refuse(token):
+        raise ValueError(token)
+
+    return json.loads(out, parse_constant=refuse)
+
+
+def test_json_keys_follow_the_design():
+    data = plan_json("--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3")
+    for key in ("metric", "target_sigma", "power", "samples", "reachable", "best_sigma", "table"):
+        assert key in data
+    # Chow, Shao and Wang (2008), section 3.1: 0.24 (3 + 0.8416)^2 / 0.1^2 = 354.2 -> 355 samples.
+    assert data["samples"] == 355 and data["reachable"] is True
+    assert data["power"] == 0.8 and data["best_sigma"] is None  # no systematic, no ceiling
+    assert [row["samples"] for row in data["table"]] == sorted(row["samples"] for row in data["table"])
+    assert 355 in [row["samples"] for row in data["table"]]
+
+
+def test_heavy_output_defaults_reproduce_the_minimum_h_table():
+    # Cross et al., Phys. Rev. A 100, 032328 (2019), via REFERENCES.md: 100 circuits need a mean
+    # heavy-output probability of 0.75293; 200 circuits 0.72949.
+    data = plan_json("--metric", "heavy-output", "--fidelity", "0.75293", "--power", "0.5",
+                     "--circuits", "200")
+    assert data["threshold"] == pytest.approx(2 / 3) and data["target_sigma"] == 2.0
+    assert data["circuits"] == 100  # 0.75293 is the minimum mean at 100 circuits
+    assert data["at"]["smallest_detectable"] == pytest.approx(0.72949, abs=5e-6)
+    row = next(r for r in data["table"] if r["circuits"] == 100)
+    assert row["smallest_detectable"] == pytest.approx(0.75293, abs=5e-6)
+    assert "samples" not in data
+
+
+def test_unreachable_target_gives_the_best_sigma():
+    status, out, _ = claimcheck("plan", "--metric", "linear-xeb", "--fidelity", "2e-3", "--threshold", "1e-3",
+                                "--sigma", "4", "--syst", "3e-4")
+    assert status == 0
+    assert "4 sigma cannot be reached at any number of samples" in out
+    assert "best achievable sigma: 3.33 (with unlimited samples)" in out
+    data = plan_json("--metric", "linear-xeb", "--fidelity", "2e-3", "--threshold", "1e-3", "--sigma", "4",
+                     "--syst", "3e-4")
+    assert data["reachable"] is False and data["samples"] is None
+    assert data["best_sigma"] == pytest.approx(10 / 3)
+
+
+def test_text_names_the_count_and_its_pass_rate():
+    status, out, _ = claimcheck("plan", "--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5",
+                                "--sigma", "3")
+    assert status == 0
+    assert "samples needed: 355 (standard error 0.026, expected 3.85 sigma, passes in 80.1% of such experiments)" in out
+
+
+def test_qubits_enter_the_linear_xeb_variance():
+    # Finite D = 2: E_ideal[x^2] = 6D^2/((D + 1)(D + 2)) (REFERENCES.md, Porter-Thomas moments),
+    # which at F = 0 gives Var = 2D/(D + 1) - 1 = 1/3 against 1 in the large-D limit.
+    small = plan_json("--metric", "linear-xeb", "--fidelity", "0", "--threshold", "-0.1", "--sigma", "3",
+                      "--qubits", "1")
+    assert small["per_sample_variance"] == pytest.approx(1 / 3)
+
+
+@pytest.mark.parametrize("argv, message", [
+    (["--metric", "proportion", "--fidelity", "0.6", "--sigma", "3"], "--threshold: is needed for proportion"),
+    (["--metric", "mean", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3"], "--sd: is needed"),
+    (["--metric", "linear-xeb", "--fidelity", "0.1", "--threshold", "0", "--sigma", "3", "--circuits", "50"],
+     "--circuits: does not apply: linear-xeb counts samples"),
+    (["--metric", "proportion", "--fidelity", "1.2", "--threshold", "0.5", "--sigma", "3"], "lies outside [0, 1]"),
+    (["--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3", "--power", "0.3"],
+     "argument --power: must lie in [0.5, 1)"),
+    (["--metric", "proportion", "--fidelity", "nan", "--threshold", "0.5", "--sigma", "3"],
+     "argument --fidelity: must be a finite number"),
+    (["--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3", "--samples", "2.5"],
+     "argument --samples: must be a whole number"),
+])
+def test_bad_options_are_one_line_and_exit_2(argv, message):
+    status, out, err = claimcheck("plan", *argv)
+    assert status == 2 and out == ""
+    assert err.count("\n") == 1 and message in err
