@@ -16,6 +16,9 @@ from .errors import ClaimcheckError
 COMMANDS = {
     "check": "check",
     "schema": "schema",
+    "raw": "raw",
+    "simulate": "simulate",
+    "drift": "drift",
 }
 
 DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs and say, number by "
