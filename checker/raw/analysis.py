@@ -21,7 +21,8 @@ from .result import BootstrapSummary, RawResult
 
 DEFAULT_REPLICATES = 10_000
 DEFAULT_FIT_SAMPLE = 100_000
-MAX_QUBITS = 1000
+# D^2 must stay finite in double precision for the sums of squares of x = D p.
+MAX_QUBITS = 500
 
 
 def analyse(path: str, metric: str, qubits: int, *, bootstrap: int = DEFAULT_REPLICATES, seed: int = 0,

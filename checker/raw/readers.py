@@ -30,6 +30,7 @@ CHUNK_ROWS = 1 << 18
 COLUMNS = ("circuit", "probability", "heavy")
 KINDS = {".csv": "csv", ".npy": "npy", ".npz": "npz", ".parquet": "parquet", ".pq": "parquet"}
 ALLOWED_PROBABILITY = "each row holds the ideal probability of the observed outcome, a number from 0 to 1"
+_ONE_BITS = int(np.array(1.0).view(np.uint64))
 ALLOWED_HEAVY = "heavy is 0 or 1 (1 when the outcome's ideal probability is above its circuit's median)"
 
 
@@ -45,8 +46,6 @@ class Chunk:
     probability: np.ndarray  # float64
     circuit: np.ndarray | None  # int64 codes into Table.labels
     heavy: np.ndarray | None  # float64, 0 or 1
-    minimum: float = 0.0  # of probability, found while validating
-    maximum: float = 1.0
 
     def __len__(self) -> int:
         return int(self.probability.size)
@@ -121,14 +120,17 @@ class Table:
             raise DataError(self.path, problem, allowed, path=column, line=row + 2)
         raise DataError(self.path, f"row {row + 1}: {problem}", allowed, path=column)
 
-    def check_probability(self, start: int, p: np.ndarray) -> tuple[float, float]:
-        """(min, max) of the chunk's probabilities; raises at the first bad row."""
+    def check_probability(self, start: int, p: np.ndarray) -> None:
+        """Raise at the first row whose probability is not a number in [0, 1]."""
         if p.size == 0:
-            return 0.0, 1.0
-        lo, hi = float(p.min()), float(p.max())
-        if lo >= 0.0 and hi <= 1.0:  # NaN fails both comparisons
-            return lo, hi
-        bad = ~((p >= 0.0) & (p <= 1.0))
+            return
+        # One pass: as unsigned integers the bit patterns of 0.0 ... 1.0 are
+        # exactly 0 ... _ONE_BITS; negatives (sign bit), NaN and infinities lie above.
+        if p.view(np.uint64).max() <= _ONE_BITS:
+            return
+        bad = ~((p >= 0.0) & (p <= 1.0))  # the slow path; -0.0 passes here
+        if not bad.any():
+            return
         i = int(np.flatnonzero(bad)[0])
         v = float(p[i])
         nan_word = "is missing or NaN" if self.kind == "csv" else "is NaN (not a number)"
@@ -146,12 +148,13 @@ class Table:
         return h
 
     def make_chunk(self, start: int, p: np.ndarray, circuit, heavy) -> Chunk:
-        lo, hi = self.check_probability(start, p)
+        p = np.ascontiguousarray(p, dtype=np.float64)
+        self.check_probability(start, p)
         codes = None
         if circuit is not None:
             codes = self._coder.codes(circuit)
         h = self.check_heavy(start, heavy) if heavy is not None else None
-        return Chunk(start, p, codes, h, lo, hi)
+        return Chunk(start, p, codes, h)
 
 
 def open_table(path: str | os.PathLike, chunk_rows: int = CHUNK_ROWS) -> Table:
@@ -348,8 +351,10 @@ def _open_npy(name: str, chunk_rows: int) -> Table:
 def _npy_chunks(table: Table) -> Iterator[Chunk]:
     """Native float64 files are read through a memory map whose pages are
     handed back (madvise DONTNEED) after each chunk: no copy, and the resident
-    set stays one chunk whatever the file size.  Other dtypes, or systems
-    without madvise, are read with ``readinto`` into a reused buffer."""
+    set stays about one chunk whatever the file size.  Other dtypes, or
+    systems without madvise, are read with ``readinto`` into a reused buffer.
+    (Measured here: faster than ``readinto`` and than one pre-faulted map per
+    chunk.)"""
     dtype = table._dtype
     if dtype.isnative and dtype == np.dtype(np.float64) and hasattr(mmap, "MADV_DONTNEED") \
             and table.total_rows > 0:
@@ -363,24 +368,21 @@ def _npy_chunks_mapped(table: Table) -> Iterator[Chunk]:
     page = mmap.PAGESIZE
     with open(table.path, "rb") as handle:
         mapping = mmap.mmap(handle.fileno(), 0, access=mmap.ACCESS_READ)
-    try:
-        values = np.frombuffer(mapping, dtype=np.float64, count=rows, offset=offset)
-        start = 0
-        released = 0
-        while start < rows:
-            n = min(table.chunk_rows, rows - start)
-            yield table.make_chunk(start, values[start:start + n], None, None)
-            start += n
-            done = (offset + start * 8) // page * page
-            if done > released:
-                mapping.madvise(mmap.MADV_DONTNEED, released, done - released)
-                released = done
-        del values
-    finally:
-        try:
-            mapping.close()
-        except BufferError:  # a caller still holds a view; the mapping closes when it goes
-            pass
+    values = np.frombuffer(mapping, dtype=np.float64, count=rows, offset=offset)
+    start = 0
+    released = 0
+    while start < rows:
+        n = min(table.chunk_rows, rows - start)
+        yield table.make_chunk(start, values[start:start + n], None, None)
+        start += n
+        done = (offset + start * 8) // page * page
+        if done > released:
+            # Pages handed back are read again from the page cache if a caller
+            # still looks at an old chunk, so this is safe as well as flat.
+            mapping.madvise(mmap.MADV_DONTNEED, released, done - released)
+            released = done
+    # The arrays keep the mapping alive; it is unmapped when the last goes.
+    del values, mapping
 
 
 def _npy_chunks_read(table: Table) -> Iterator[Chunk]:

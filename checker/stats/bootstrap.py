@@ -101,9 +101,10 @@ class BinnedSample:
         return float(self.within_ss().sum() / total) if total > 0 else 0.0
 
 
-def bin_values(values: np.ndarray, groups: int = DEFAULT_GROUPS) -> BinnedSample:
-    """Bin an in-memory sample by value: the union of ``groups // 2``
-    equal-count and ``groups // 2`` equal-width bins.
+def value_bin_edges(values: np.ndarray, groups: int = DEFAULT_GROUPS) -> np.ndarray:
+    """Inner bin edges: the union of ``groups // 2`` equal-count and
+    ``groups // 2`` equal-width cuts.  A value v falls in bin
+    ``searchsorted(edges, v, side="right")``.
 
     Equal-count bins keep the dense middle fine; equal-width bins keep the
     sparse tail fine, where equal-count bins alone would be wide.
@@ -115,7 +116,13 @@ def bin_values(values: np.ndarray, groups: int = DEFAULT_GROUPS) -> BinnedSample
     lo, hi = float(x.min()), float(x.max())
     quantile_edges = np.quantile(x, np.linspace(0.0, 1.0, half + 1)[1:-1])
     width_edges = np.linspace(lo, hi, half + 1)[1:-1] if hi > lo else np.empty(0)
-    edges = np.unique(np.concatenate([quantile_edges, width_edges]))
+    return np.unique(np.concatenate([quantile_edges, width_edges]))
+
+
+def bin_values(values: np.ndarray, groups: int = DEFAULT_GROUPS) -> BinnedSample:
+    """Bin an in-memory sample by value (see :func:`value_bin_edges`)."""
+    x = np.asarray(values, dtype=float).ravel()
+    edges = value_bin_edges(x, groups)
     index = np.searchsorted(edges, x, side="right")
     size = edges.size + 1
     counts = np.bincount(index, minlength=size).astype(float)

@@ -85,7 +85,7 @@ def test_data_the_metric_cannot_use(files, tmp_path):
     with pytest.raises(DataError, match="1 samples have probability 0"):
         analyse(str(tmp_path / "zero.npy"), "log-xeb", 10)
     assert analyse(str(tmp_path / "zero.npy"), "linear-xeb", 10, bootstrap=10).combined["log-xeb"].estimate is None
-    with pytest.raises(DataError, match="qubits must be a whole number from 1 to 1000"):
+    with pytest.raises(DataError, match="qubits must be a whole number from 1 to 500"):
         analyse(str(tmp_path / "zero.npy"), "linear-xeb", 0)
     with pytest.raises(DataError, match="has no raw-data estimator"):
         analyse(str(tmp_path / "zero.npy"), "proportion", 10)

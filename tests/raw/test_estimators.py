@@ -23,7 +23,7 @@ def _feed(acc, p, circuit=None, heavy=None, chunk=1000):
         sl = slice(start, start + chunk)
         part = p[sl]
         acc.add(Chunk(start, part, None if circuit is None else circuit[sl],
-                      None if heavy is None else heavy[sl].astype(float), float(part.min()), float(part.max())))
+                      None if heavy is None else heavy[sl].astype(float)))
     return acc
 
 
@@ -100,7 +100,7 @@ def test_seeded_coverage_of_the_standard_errors(metric):
     for _ in range(runs):
         p, _ = sample_large_dimension(30, n, truth, rng)
         acc = Accumulator(30, bins=False, sample_size=0)
-        acc.add(Chunk(0, p, None, None, float(p.min()), float(p.max())))
+        acc.add(Chunk(0, p, None, None))
         e = combined_estimates(acc.result([]))[metric]
         est.append(e.estimate)
         model.append(e.stat_error)

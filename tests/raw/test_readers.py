@@ -191,6 +191,18 @@ def test_missing_or_unknown_files(tmp_path):
     assert issubclass(DataError, ClaimcheckError)
 
 
+def test_the_one_pass_range_check_keeps_its_edges(tmp_path):
+    # 0.0, 1.0 and -0.0 are probabilities; the next float above 1 and the
+    # smallest negative number are not.
+    np.save(tmp_path / "edges.npy", np.array([0.0, 1.0, -0.0, 5e-324]))
+    assert _read(str(tmp_path / "edges.npy"))[1].size == 4
+    for bad, word in ((np.nextafter(1.0, 2.0), r"outside \[0, 1\]"), (-5e-324, r"outside \[0, 1\]"),
+                      (np.inf, "not a finite number"), (-np.inf, "not a finite number")):
+        np.save(tmp_path / "bad.npy", np.array([0.5, 0.25, bad]))
+        with pytest.raises(DataError, match=f"row 3: probability is .*{word}"):
+            _read(str(tmp_path / "bad.npy"))
+
+
 def test_compressed_csv(tmp_path):
     path = tmp_path / "data.csv.gz"
     pd.DataFrame({"probability": P}).to_csv(path, index=False)
