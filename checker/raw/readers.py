@@ -366,9 +366,13 @@ def _npy_chunks(table: Table) -> Iterator[Chunk]:
 def _npy_chunks_mapped(table: Table) -> Iterator[Chunk]:
     rows, offset = table.total_rows, table._offset
     page = mmap.PAGESIZE
-    with open(table.path, "rb") as handle:
-        mapping = mmap.mmap(handle.fileno(), 0, access=mmap.ACCESS_READ)
-    values = np.frombuffer(mapping, dtype=np.float64, count=rows, offset=offset)
+    try:
+        with open(table.path, "rb") as handle:
+            mapping = mmap.mmap(handle.fileno(), 0, access=mmap.ACCESS_READ)
+        values = np.frombuffer(mapping, dtype=np.float64, count=rows, offset=offset)
+    except (OSError, ValueError) as exc:  # the file shrank since it was opened
+        raise DataError(table.path, f"cannot be read to the end ({_first_line(exc)})",
+                        "give the complete file") from None
     start = 0
     released = 0
     while start < rows:
