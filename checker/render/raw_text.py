@@ -26,9 +26,10 @@ def _n(x, digits: int = 4) -> str:
 
 
 def _p(p: float) -> str:
+    """``p = 0.037``, or ``p < 1e-300`` where the p-value underflows."""
     if p is None:
-        return "n/a"
-    return "< 1e-300" if p == 0 else _n(p, 2)
+        return "p n/a"
+    return "p < 1e-300" if p == 0 else f"p = {_n(p, 2)}"
 
 
 def render_raw_text(result) -> str:
@@ -61,7 +62,7 @@ def render_raw_text(result) -> str:
         for t in result.goodness_of_fit:
             by_at.setdefault(t.at, []).append(t)
         for at, tests in by_at.items():
-            parts = "   ".join(f"{TEST_WORDS[t.test]} {_n(t.statistic, 3)}, p = {_p(t.p_value)}" for t in tests)
+            parts = "   ".join(f"{TEST_WORDS[t.test]} {_n(t.statistic, 3)}, {_p(t.p_value)}" for t in tests)
             lines.append(f"  {AT_WORDS[at]:<9} F = {_n(tests[0].fidelity)}   {parts}")
     b = result.bootstrap
     if b is not None:
@@ -129,7 +130,7 @@ def render_drift_text(result, file: str) -> str:
     lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)} "
              f"({r.window_points} points)", ""]
     lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} per unit time; {r.level:.0%} interval "
-                 f"{_n(r.slope_low)} to {_n(r.slope_high)} (p = {_p(r.slope_p_value)})")
+                 f"{_n(r.slope_low)} to {_n(r.slope_high)} ({_p(r.slope_p_value)})")
     lines.append(f"  level at window  {_n(r.trend_level)} +- {_n(r.trend_level_error, 3)} (intercept at the window "
                  "centre)")
     lines.append(f"  trend across window {_n(r.trend_change, 3)} (as a spread {_n(r.trend_spread, 3)})")
@@ -146,7 +147,7 @@ def render_drift_text(result, file: str) -> str:
                  "quadrature)")
     if r.constant_chi2 is not None:
         lines.append(f"  constant model   chi2 = {_n(r.constant_chi2, 4)} for {r.constant_dof} dof, "
-                     f"p = {_p(r.constant_p_value)}")
+                     f"{_p(r.constant_p_value)}")
     verdict = ("rejected (" + " and ".join({"slope": "the slope differs from 0",
                                             "scatter": "the scatter exceeds the stated errors"}[x]
                                            for x in r.reasons) + f", alpha {r.alpha:g})"
