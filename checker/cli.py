@@ -18,6 +18,9 @@ COMMANDS = {
     "schema": "schema",
     "batch": "batch",
     "plan": "plan",
+    "raw": "raw",
+    "simulate": "simulate",
+    "drift": "drift",
 }
 
 DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs and say, number by "

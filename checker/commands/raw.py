@@ -1,0 +1,130 @@
+"""``claimcheck raw DATA``: re-derive the estimate from raw per-sample data,
+test the Porter-Thomas model behind it, bootstrap it, and (with ``--claim``)
+hold the claim's printed numbers against it."""
+
+from __future__ import annotations
+
+import argparse
+
+HELP = "re-derive an estimate from raw per-sample data and test the model it leans on"
+DESCRIPTION = (HELP + ". DATA is CSV, NPY, NPZ or Parquet with one row per sample: probability (the ideal "
+               "probability of the observed outcome), and optionally circuit and heavy (0/1).")
+# Kept here rather than imported so that building the parser stays light.
+METRICS = ("linear-xeb", "log-xeb", "heavy-output")
+DEFAULT_REPLICATES = 10_000
+DEFAULT_FIT_SAMPLE = 100_000
+
+
+def _whole(low: int, what: str):
+    def parse(text: str) -> int:
+        try:
+            value = int(text)
+        except ValueError:
+            raise argparse.ArgumentTypeError(f"{what} must be a whole number, got {text!r}") from None
+        if value < low:
+            raise argparse.ArgumentTypeError(f"{what} must be at least {low}, got {value}")
+        return value
+    return parse
+
+
+def _level(text: str) -> float:
+    try:
+        value = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"level must be a number, got {text!r}") from None
+    if not 0.0 < value < 1.0:
+        raise argparse.ArgumentTypeError(f"level must lie between 0 and 1, got {text}")
+    return value
+
+
+def _finite(text: str) -> float:
+    try:
+        value = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"expected a number, got {text!r}") from None
+    if value != value or value in (float("inf"), float("-inf")):
+        raise argparse.ArgumentTypeError(f"expected a finite number, got {text!r}")
+    return value
+
+
+def add_parser(sub) -> None:
+    p = sub.add_parser("raw", help=HELP, description=DESCRIPTION)
+    p.add_argument("data", metavar="DATA", help="raw data file (.csv, .npy, .npz, .parquet)")
+    p.add_argument("--claim", metavar="CLAIM", help="claim file whose printed numbers to hold against the data")
+    p.add_argument("--metric", choices=METRICS, help="headline metric (default: the claim's)")
+    p.add_argument("--qubits", type=_whole(1, "qubits"), metavar="N", help="qubits; D = 2**N (default: the claim's)")
+    p.add_argument("--bootstrap", type=_whole(0, "bootstrap"), default=DEFAULT_REPLICATES, metavar="B",
+                   help=f"bootstrap replicates, 0 for none (default {DEFAULT_REPLICATES:,})")
+    p.add_argument("--seed", type=_whole(0, "seed"), default=0, metavar="S",
+                   help="seed of the subsample and the bootstrap (default 0)")
+    p.add_argument("--level", type=_level, default=0.95, help="bootstrap interval level (default 0.95)")
+    p.add_argument("--threshold", type=_finite, metavar="F",
+                   help="also test the fit at this fidelity (default: the claim's threshold)")
+    p.add_argument("--fit-sample", type=_whole(2, "fit-sample"), default=DEFAULT_FIT_SAMPLE, metavar="K",
+                   help=f"rows kept at random for the goodness-of-fit tests (default {DEFAULT_FIT_SAMPLE:,})")
+    p.add_argument("--estimate-only", action="store_true",
+                   help="only the estimates and their errors (no fits, tests or bootstrap): the fastest pass")
+    p.add_argument("--json", action="store_true", help="print the result as JSON")
+
+
+def run(args, stdout, stderr) -> int:
+    from dataclasses import replace
+
+    from ..errors import DataError
+    from ..raw.analysis import analyse
+    from ..render.raw_text import render_raw_text
+
+    claim = None
+    if args.claim:
+        from ..claim import read_claim
+
+        claim = read_claim(args.claim)
+        if claim.metric not in METRICS:
+            raise DataError(args.claim, f"the claim's metric {claim.metric} has no raw-data estimator",
+                            f"raw data give {', '.join(METRICS)}", path="metric")
+        if args.metric and args.metric != claim.metric:
+            raise DataError(args.claim, f"the claim's metric is {claim.metric} but --metric says {args.metric}",
+                            "leave out --metric or make the two agree", path="metric")
+        if args.qubits and claim.qubit_count and args.qubits != claim.qubit_count:
+            raise DataError(args.claim, f"the claim says {claim.qubit_count} qubits but --qubits says {args.qubits}",
+                            "leave out --qubits or make the two agree", path="qubits")
+    metric = args.metric or (claim.metric if claim else None)
+    qubits = args.qubits or (claim.qubit_count if claim else None)
+    if metric is None:
+        raise DataError(args.data, "no metric given", f"give --metric ({', '.join(METRICS)}) or --claim")
+    if qubits is None:
+        raise DataError(args.data, "the number of qubits is not known", "give --qubits N (or a claim with qubits)")
+    threshold = args.threshold
+    if threshold is None and claim is not None and claim.threshold is not None:
+        threshold = claim.threshold.value
+    result = analyse(args.data, metric, qubits, bootstrap=0 if args.estimate_only else args.bootstrap,
+                     seed=args.seed, level=args.level, threshold=threshold, fit_sample=args.fit_sample,
+                     estimate_only=args.estimate_only)
+    if claim is not None:
+        result = _with_claim(result, claim, args.claim, replace)
+    if args.json:
+        from ..render.json import dumps
+
+        stdout.write(dumps(result.to_dict()))
+    else:
+        stdout.write(render_raw_text(result))
+    if result.findings is not None and any(f.status == "fail" for f in result.findings):
+        return 1
+    return 0
+
+
+def _with_claim(result, claim, claim_file, replace):
+    from ..checks import run_checks
+    from ..raw.compare import claim_with_raw_numbers, raw_findings, with_raw_label
+    from ..report import Finding, Report
+
+    findings = list(run_checks(claim).findings)
+    findings += raw_findings(claim, result)
+    substituted = claim_with_raw_numbers(claim, result)
+    if substituted is None:
+        findings.append(Finding("skip", "The claim checks were not rerun on the raw numbers: the headline is "
+                                "extrapolated from the measured value.", check="raw-rerun"))
+    else:
+        findings += [with_raw_label(f) for f in run_checks(substituted).findings]
+    report = Report(title=claim.title, file=claim_file, findings=tuple(findings))
+    return replace(result, findings=report.findings, claim_file=claim_file, verdict=report.verdict)

@@ -1,0 +1,156 @@
+"""Terminal text for ``claimcheck raw`` and ``claimcheck drift``.  Pure
+functions of their result objects; nothing here computes a statistic."""
+
+from __future__ import annotations
+
+import math
+
+from .text import CAUTION, MARKS
+
+METRIC_WORDS = {"linear-xeb": "linear XEB", "log-xeb": "log XEB", "heavy-output": "heavy output"}
+TEST_WORDS = {"kolmogorov-smirnov": "Kolmogorov-Smirnov", "cramer-von-mises": "Cramer-von Mises"}
+AT_WORDS = {"fitted": "fitted", "threshold": "threshold", "zero": "zero"}
+MAX_CIRCUIT_LINES = 12
+
+
+def _n(x, digits: int = 4) -> str:
+    if x is None or (isinstance(x, float) and not math.isfinite(x)):
+        return "n/a"
+    if x == 0:
+        return "0"
+    text = f"{x:.{digits}g}"
+    if "e" in text:
+        mantissa, exponent = text.split("e")
+        return f"{mantissa}e{int(exponent)}"
+    return text
+
+
+def _p(p: float) -> str:
+    """``p = 0.037``, or ``p < 1e-300`` where the p-value underflows."""
+    if p is None:
+        return "p n/a"
+    return "p < 1e-300" if p == 0 else f"p = {_n(p, 2)}"
+
+
+def render_raw_text(result) -> str:
+    """The raw-data summary, then the claim findings when there are any."""
+    lines = [f"Raw data {result.file}: {result.rows:,} samples, {result.circuit_count:,} circuit(s), "
+             f"{result.qubits} qubits (D = 2^{result.qubits})", ""]
+    lines.append("Estimates over all circuits (standard errors: model / data / ratio):")
+    for name, est in result.combined.items():
+        mark = "*" if name == result.metric else " "
+        if est.estimate is None:
+            lines.append(f" {mark} {METRIC_WORDS[name]:<13} not computed: {est.note}")
+            continue
+        extra = []
+        if est.extra.get("stat_error_circuits"):
+            extra.append(f"between circuits {_n(est.extra['stat_error_circuits'], 3)}")
+        if "fidelity_finite_d" in est.extra and name != "heavy-output":
+            extra.append(f"finite-D corrected {_n(est.extra['fidelity_finite_d'])}")
+        if est.extra.get("stat_error_shots"):
+            extra.append(f"from shots {_n(est.extra['stat_error_shots'], 3)}")
+        tail = f"; {', '.join(extra)}" if extra else ""
+        lines.append(f" {mark} {METRIC_WORDS[name]:<13} {_n(est.estimate)}  +- {_n(est.stat_error, 3)} / "
+                     f"{_n(est.stat_error_data, 3)} / {_n(est.ratio, 3)}{tail}")
+    if result.fits:
+        fits = "; ".join(f"{f.method} {_n(f.fidelity)} +- {_n(f.stat_error, 3)}" for f in result.fits)
+        lines += ["", f"Fidelity fitted: {fits}"]
+    if result.goodness_of_fit:
+        size = result.goodness_of_fit[0].samples
+        lines += ["", f"Goodness of fit of x = D p to the Porter-Thomas mixture ({size:,} samples):"]
+        by_at: dict = {}
+        for t in result.goodness_of_fit:
+            by_at.setdefault(t.at, []).append(t)
+        for at, tests in by_at.items():
+            parts = "   ".join(f"{TEST_WORDS[t.test]} {_n(t.statistic, 3)}, {_p(t.p_value)}" for t in tests)
+            lines.append(f"  {AT_WORDS[at]:<9} F = {_n(tests[0].fidelity)}   {parts}")
+    b = result.bootstrap
+    if b is not None:
+        lines += ["", f"Bootstrap ({b.replicates:,} replicates, {b.resampling} resampled, seed {b.seed}): "
+                  f"{b.level:.0%} percentile {_n(b.low)} to {_n(b.high)}; basic {_n(b.basic_low)} to "
+                  f"{_n(b.basic_high)}; sd {_n(b.sd, 3)}"]
+    if result.circuit_count > 1:
+        lines += ["", f"Per circuit ({METRIC_WORDS[result.metric]}"
+                  f"{', first ' + str(MAX_CIRCUIT_LINES) if result.circuit_count > MAX_CIRCUIT_LINES else ''}):",
+                  f"  {'circuit':<12} {'samples':>9} {'estimate':>10} {'model se':>9} {'data se':>9} {'ratio':>6}"]
+        for label, metrics in result.circuits[:MAX_CIRCUIT_LINES]:
+            m = metrics.get(result.metric)
+            if m is None:
+                lines.append(f"  {str(label):<12} (no {METRIC_WORDS[result.metric]})")
+                continue
+            lines.append(f"  {str(label):<12} {m.samples:>9,} {_n(m.estimate):>10} {_n(m.stat_error, 3):>9} "
+                         f"{_n(m.stat_error_data, 3):>9} {_n(m.ratio, 3):>6}")
+    if result.notes:
+        lines += ["", "Notes:"] + [f"  - {note}" for note in result.notes]
+    if result.findings is not None:
+        width = max((len(f.check) for f in result.findings), default=8)
+        lines += ["", f"Against the claim {result.claim_file}:"]
+        shown, same = _visible(result.findings)
+        for f in shown:
+            lines.append(f"{MARKS[f.status]} {f.check:<{width}}  {f.message}")
+        if same:
+            lines.append(f"       ({same} claim check(s) give the same result with the raw data's numbers; "
+                         "--json lists them)")
+        counts = {s: sum(f.status == s for f in result.findings) for s in ("fail", "warn", "pass", "skip")}
+        lines += ["", f"verdict: {result.verdict} ({counts['fail']} flagged, {counts['warn']} noted, "
+                  f"{counts['pass']} agree, {counts['skip']} not checked)"]
+        if counts["fail"] or counts["warn"]:
+            lines.append(CAUTION)
+    return "\n".join(lines) + "\n"
+
+
+RAW_PREFIX = "With the raw data's numbers: "
+
+
+def _visible(findings):
+    """Findings to print: a claim check rerun on the raw numbers is left out
+    when it says exactly what the printed-number run said."""
+    printed: dict = {}
+    for f in findings:
+        if f.details.get("numbers") != "raw" and not f.check.startswith("raw-"):
+            printed.setdefault(f.check, []).append(f)
+    seen: dict = {}
+    shown, same = [], 0
+    for f in findings:
+        if f.details.get("numbers") == "raw":
+            i = seen.get(f.check, 0)
+            seen[f.check] = i + 1
+            twins = printed.get(f.check, [])
+            twin = twins[i] if i < len(twins) else None
+            if twin is not None and twin.status == f.status and RAW_PREFIX + twin.message == f.message:
+                same += 1
+                continue
+        shown.append(f)
+    return shown, same
+
+
+def render_drift_text(result, file: str) -> str:
+    """The stability summary of one series."""
+    r = result
+    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)} "
+             f"({r.window_points} points)", ""]
+    lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} per unit time; {r.level:.0%} interval "
+                 f"{_n(r.slope_low)} to {_n(r.slope_high)} ({_p(r.slope_p_value)})")
+    lines.append(f"  level at window  {_n(r.trend_level)} +- {_n(r.trend_level_error, 3)} (intercept at the window "
+                 "centre)")
+    lines.append(f"  trend across window {_n(r.trend_change, 3)} (as a spread {_n(r.trend_spread, 3)})")
+    spread = f"  residual sd      {_n(r.residual_sd, 3)} overall"
+    if r.residual_sd_window is not None:
+        spread += f", {_n(r.residual_sd_window, 3)} in the window"
+    if r.stated_error_rms_window is not None:
+        spread += f" against stated errors {_n(r.stated_error_rms_window, 3)}"
+    lines.append(spread)
+    if r.excess_spread_window is not None:
+        lines.append(f"  excess spread    {_n(r.excess_spread_window, 3)}"
+                     f"{'' if r.stated_error_rms_window is not None else ' (no errors given: all of the residual spread)'}")
+    lines.append(f"  systematic       {_n(r.systematic, 3)} (trend spread, excess spread and intercept error in "
+                 "quadrature)")
+    if r.constant_chi2 is not None:
+        lines.append(f"  constant model   chi2 = {_n(r.constant_chi2, 4)} for {r.constant_dof} dof, "
+                     f"{_p(r.constant_p_value)}")
+    verdict = ("rejected (" + " and ".join({"slope": "the slope differs from 0",
+                                            "scatter": "the scatter exceeds the stated errors"}[x]
+                                           for x in r.reasons) + f", alpha {r.alpha:g})"
+               if r.constant_rejected else f"not rejected at alpha {r.alpha:g}")
+    lines += ["", f"A constant value over time: {verdict}."]
+    return "\n".join(lines) + "\n"
