@@ -65,15 +65,22 @@ def add_parser(sub) -> None:
     p.add_argument("--estimate-only", action="store_true",
                    help="only the estimates and their errors (no fits, tests or bootstrap): the fastest pass")
     p.add_argument("--json", action="store_true", help="print the result as JSON")
+    p.add_argument("--html", metavar="OUT", help="also write an HTML page with the histogram and bootstrap pictures to OUT")
+    p.add_argument("--markdown", metavar="OUT", help="also write a short Markdown summary to OUT")
 
 
 def run(args, stdout, stderr) -> int:
     from dataclasses import replace
 
     from ..errors import DataError
+    from ..output import refuse_overwriting_inputs, write_atomic
     from ..raw.analysis import analyse
     from ..render.raw_text import render_raw_text
 
+    inputs = [args.data] + ([args.claim] if args.claim else [])
+    for out in (args.html, args.markdown):
+        if out:  # refused before the (possibly long) pass over the data
+            refuse_overwriting_inputs(out, inputs)
     claim = None
     if args.claim:
         from ..claim import read_claim
@@ -100,8 +107,20 @@ def run(args, stdout, stderr) -> int:
     result = analyse(args.data, metric, qubits, bootstrap=0 if args.estimate_only else args.bootstrap,
                      seed=args.seed, level=args.level, threshold=threshold, fit_sample=args.fit_sample,
                      estimate_only=args.estimate_only)
+    report = None
     if claim is not None:
         result = _with_claim(result, claim, args.claim, replace)
+        from ..report import Report
+
+        report = Report(title=claim.title, file=args.claim, findings=result.findings)
+    if args.html:
+        from ..render.raw_html import render_raw_html
+
+        write_atomic(args.html, render_raw_html(result, report), inputs)
+    if args.markdown:
+        from ..render.raw_markdown import render_raw_markdown
+
+        write_atomic(args.markdown, render_raw_markdown(result, report), inputs)
     if args.json:
         from ..render.json import dumps
 

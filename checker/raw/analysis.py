@@ -187,9 +187,11 @@ def _bootstrap(metric, sums, combined, replicates, rng, level, seed) -> Bootstra
     low, high = result.percentile_interval(level)
     blow, bhigh = result.basic_interval(level)
     edges, density = boot.histogram(result.replicates)
+    counts, _ = np.histogram(result.replicates, bins=edges)
     return BootstrapSummary(level=level, low=low, high=high, basic_low=blow, basic_high=bhigh,
                             replicates=result.count, resampling=result.method, sd=result.sd,
                             within_share=result.within_share, error_bound=result.error_bound,
                             bins=result.bins, seed=seed, histogram_edges=tuple(float(e) for e in edges),
-                            histogram_density=tuple(float(d) for d in density))
+                            histogram_density=tuple(float(d) for d in density),
+                            histogram_counts=tuple(int(c) for c in counts))
 

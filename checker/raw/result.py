@@ -8,8 +8,9 @@ keys DESIGN.md fixes (``metric``, ``qubits``, ``rows``, ``combined``,
 * ``fits``: the fidelity from the moment estimator and by maximum likelihood;
 * ``histogram``: for a plot, bin ``edges`` of x = D p, ``observed_density``,
   the mixture's ``density_fitted`` (at ``fidelity_fitted``) and
-  ``density_zero`` (F = 0), and ``bootstrap``: ``edges`` and ``density`` of the
-  bootstrap replicates of the combined estimate;
+  ``density_zero`` (F = 0), and ``bootstrap``: ``edges``, ``density`` and
+  ``counts`` (replicates per bin) of the bootstrap replicates of the combined
+  estimate;
 * ``notes``: plain sentences about what was assumed or left out.
 """
 
@@ -44,6 +45,7 @@ class BootstrapSummary:
     seed: int
     histogram_edges: tuple = ()
     histogram_density: tuple = ()
+    histogram_counts: tuple = ()  # replicates per bin, on the same edges
 
     def to_dict(self) -> dict:
         return {"level": self.level, "low": self.low, "high": self.high, "replicates": self.replicates,
@@ -121,6 +123,7 @@ class RawResult:
             if self.bootstrap is not None and self.bootstrap.histogram_edges:
                 hist["bootstrap"] = {"edges": list(self.bootstrap.histogram_edges),
                                      "density": list(self.bootstrap.histogram_density),
+                                     "counts": list(self.bootstrap.histogram_counts),
                                      "estimate": combined["estimate"],
                                      "low": self.bootstrap.low, "high": self.bootstrap.high}
             out["histogram"] = hist

@@ -95,3 +95,15 @@ def test_notes_flag_a_wrong_number_of_qubits(files):
     folder, _, _ = files
     r = analyse(str(folder / "many.npz"), "linear-xeb", 16, bootstrap=0, fit_sample=100)
     assert any("check --qubits" in n for n in r.notes)
+
+
+def test_bootstrap_histogram_counts_match_its_density(files):
+    # The counts per bin (drawn by raw --html) and the density (in --json) describe
+    # the same replicates: density = counts / (replicates x bin width), numpy's
+    # definition of density=True (numpy.histogram documentation).
+    folder, _, _ = files
+    b = analyse(str(folder / "many.npz"), "linear-xeb", 10, bootstrap=400, fit_sample=1000).bootstrap
+    counts = np.asarray(b.histogram_counts)
+    assert counts.sum() == b.replicates and len(counts) == len(b.histogram_edges) - 1
+    widths = np.diff(b.histogram_edges)
+    assert np.allclose(counts / (b.replicates * widths), b.histogram_density)
