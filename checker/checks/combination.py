@@ -196,7 +196,6 @@ def check(claim: Claim) -> Iterator[Finding]:
                       "between-part variance was used.", reported=reported, recomputed=recomputed,
                       reproduced_by={"method": "paule-mandel"}, details=details)
         return
-    r = summary.methods[stated]
     numbers = _result_text(summary, stated, est, err).split(", ", 1)[1]
     base = (f"Printed combination {printed}, but {METHOD_WORDS[stated]} of the {k} parts, the stated "
             f"method, is {numbers}")

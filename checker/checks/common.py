@@ -7,7 +7,9 @@ import math
 
 from ..claim.model import Claim, Reported
 from ..metrics import METRICS, MetricModel, ModelInputs
+from .. import wording
 from ..stats.porter_thomas import dimension_of
+from ..wording import num  # noqa: F401  (re-exported for the checks)
 
 LN10 = math.log(10.0)
 
@@ -32,25 +34,8 @@ def count_for_error(claim: Claim) -> Reported | None:
     return claim.samples
 
 
-def num(x: float | None, digits: int = 3) -> str:
-    """A number as findings print it: ``digits`` significant figures."""
-    if x is None:
-        return "n/a"
-    if not math.isfinite(x):
-        return "n/a"
-    if x == 0:
-        return "0"
-    text = f"{x:.{digits}g}"
-    if "e" in text:
-        mantissa, exponent = text.split("e")
-        return f"{mantissa}e{int(exponent)}"
-    return text
-
-
 def num_range(bounds: tuple[float, float], digits: int = 3) -> str:
-    lo, hi = bounds
-    a, b = num(lo, digits), num(hi, digits)
-    return a if a == b else f"{a} to {b}"
+    return wording.num_range(bounds[0], bounds[1], digits)
 
 
 def p_text(log_p: float, digits: int = 2) -> str:

@@ -23,14 +23,14 @@ import math
 from dataclasses import dataclass
 from typing import Iterator
 
-from ..claim.model import Claim, Reported
+from ..claim.model import Claim
 from ..report import Finding
 from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
 from .common import (convention_text, is_probability, count_for_error, finite_or_none, log_bounds, metric_of,
-                     model_inputs, num, num_range, p_range_text, p_text)
+                     model_inputs, num, num_range, p_range_text)
 
 KEYS = ("sided", "systematics", "error_at")
 

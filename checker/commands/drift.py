@@ -5,7 +5,8 @@ from __future__ import annotations
 
 import argparse
 
-from .raw import _finite, _level
+from .arguments import finite as _finite
+from .arguments import level as _level
 
 HELP = "estimate a stability systematic from a series of repeated measurements (time, estimate, error)"
 DESCRIPTION = (HELP + ". SERIES.csv has columns time (a number or an ISO date-time), estimate and, optionally, "

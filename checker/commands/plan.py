@@ -6,19 +6,11 @@ from __future__ import annotations
 import argparse
 import math
 
+from .arguments import finite as _finite
+
 HELP = ("plan an experiment: the samples (circuits, for heavy-output) needed to reach a significance "
         "with a given power, the smallest detectable value, and a table over a range of counts")
 HEAVY_DEFAULTS = {"threshold": 2.0 / 3.0, "sigma": 2.0}  # Cross et al. (2019): h - 2 sigma > 2/3
-
-
-def _finite(text: str) -> float:
-    try:
-        x = float(text)
-    except ValueError:
-        x = math.nan
-    if not math.isfinite(x):
-        raise argparse.ArgumentTypeError(f"must be a finite number, got {text!r}")
-    return x
 
 
 def _positive(text: str) -> float:

@@ -4,7 +4,10 @@ hold the claim's printed numbers against it."""
 
 from __future__ import annotations
 
-import argparse
+
+from .arguments import finite as _finite
+from .arguments import level as _level
+from .arguments import whole as _whole
 
 HELP = "re-derive an estimate from raw per-sample data and test the model it leans on"
 DESCRIPTION = (HELP + ". DATA is CSV, NPY, NPZ or Parquet with one row per sample: probability (the ideal "
@@ -13,38 +16,6 @@ DESCRIPTION = (HELP + ". DATA is CSV, NPY, NPZ or Parquet with one row per sampl
 METRICS = ("linear-xeb", "log-xeb", "heavy-output")
 DEFAULT_REPLICATES = 10_000
 DEFAULT_FIT_SAMPLE = 100_000
-
-
-def _whole(low: int, what: str):
-    def parse(text: str) -> int:
-        try:
-            value = int(text)
-        except ValueError:
-            raise argparse.ArgumentTypeError(f"{what} must be a whole number, got {text!r}") from None
-        if value < low:
-            raise argparse.ArgumentTypeError(f"{what} must be at least {low}, got {value}")
-        return value
-    return parse
-
-
-def _level(text: str) -> float:
-    try:
-        value = float(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"level must be a number, got {text!r}") from None
-    if not 0.0 < value < 1.0:
-        raise argparse.ArgumentTypeError(f"level must lie between 0 and 1, got {text}")
-    return value
-
-
-def _finite(text: str) -> float:
-    try:
-        value = float(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"expected a number, got {text!r}") from None
-    if value != value or value in (float("inf"), float("-inf")):
-        raise argparse.ArgumentTypeError(f"expected a finite number, got {text!r}")
-    return value
 
 
 def add_parser(sub) -> None:

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import argparse
 
-from .raw import _whole
+from .arguments import whole as _whole
 
 HELP = "write a simulated raw dataset with a known fidelity (CSV, NPY, NPZ or Parquet)"
 DESCRIPTION = (HELP + ". Ideal probabilities come from Porter-Thomas statistics or from small random circuits "

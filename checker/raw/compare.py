@@ -27,6 +27,7 @@ import math
 from dataclasses import replace
 from typing import Iterator
 
+from .. import wording
 from ..claim.model import Claim, Reported
 from ..report import Finding
 from ..stats.precision import agrees, gap
@@ -37,14 +38,7 @@ ERROR_WARN_RATIO = 3.0
 MODEL_P = 0.01
 
 
-def _num(x: float | None, digits: int = 3) -> str:
-    if x is None or not math.isfinite(x):
-        return "n/a"
-    text = f"{x:.{digits}g}"
-    if "e" in text:
-        mantissa, exponent = text.split("e")
-        return f"{mantissa}e{int(exponent)}"
-    return text
+_num = wording.num
 
 
 def _target(claim: Claim):

@@ -21,6 +21,8 @@ from contextlib import contextmanager
 from html import escape
 from typing import Iterator, Mapping, Sequence
 
+from .. import wording
+
 # Our palette: dark ink on warm paper, one deep blue accent and one ochre; every
 # series also differs by marker, line style or hatching so greyscale prints read.
 INK = "#1f2430"
@@ -66,16 +68,7 @@ def _plain(text: object) -> str:
     return " ".join(str(text).split())
 
 
-def _fmt(x: float, digits: int = 3) -> str:
-    if x is None or not math.isfinite(x):
-        return "n/a"
-    if x == 0:
-        return "0"
-    text = f"{x:.{digits}g}"
-    if "e" in text:
-        mantissa, exponent = text.split("e")
-        return f"{mantissa}e{int(exponent)}"
-    return text
+_fmt = wording.num
 
 
 def _finite(*values) -> bool:

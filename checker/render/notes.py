@@ -13,6 +13,7 @@ import re
 from dataclasses import dataclass
 from typing import Any, Iterable, Iterator, Mapping
 
+from .. import wording
 from ..claim.model import Claim, Reported
 from ..report import Finding, Report
 
@@ -75,21 +76,11 @@ _ERROR_AT_WORDS = {
 
 
 def num(x: Any, digits: int = 3) -> str:
-    """A number as the reports print it: ``digits`` significant figures."""
-    if x is None or isinstance(x, bool) or not isinstance(x, (int, float)):
-        return "n/a"
-    x = float(x)
-    if not math.isfinite(x):
-        return "n/a"
-    if x == 0:
-        return "0"
-    if x.is_integer() and abs(x) < 1e6:
+    """A number as the reports print it (see checker.wording), with counts whole."""
+    if isinstance(x, (int, float)) and not isinstance(x, bool) and math.isfinite(x) \
+            and float(x).is_integer() and abs(x) < 1e6 and x != 0:
         return str(int(x))  # counts read better whole: 1200, not 1.2e3
-    text = f"{x:.{digits}g}"
-    if "e" in text:
-        mantissa, exponent = text.split("e")
-        return f"{mantissa}e{int(exponent)}"
-    return text
+    return wording.num(float(x) if isinstance(x, int) and not isinstance(x, bool) else x, digits)
 
 
 def num_range(low: Any, high: Any, digits: int = 3) -> str:

@@ -3,8 +3,8 @@ functions of their result objects; nothing here computes a statistic."""
 
 from __future__ import annotations
 
-import math
 
+from .. import wording
 from .text import CAUTION, MARKS
 
 METRIC_WORDS = {"linear-xeb": "linear XEB", "log-xeb": "log XEB", "heavy-output": "heavy output"}
@@ -14,15 +14,7 @@ MAX_CIRCUIT_LINES = 12
 
 
 def _n(x, digits: int = 4) -> str:
-    if x is None or (isinstance(x, float) and not math.isfinite(x)):
-        return "n/a"
-    if x == 0:
-        return "0"
-    text = f"{x:.{digits}g}"
-    if "e" in text:
-        mantissa, exponent = text.split("e")
-        return f"{mantissa}e{int(exponent)}"
-    return text
+    return wording.num(x, digits)
 
 
 def _p(p: float) -> str:

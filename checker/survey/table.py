@@ -20,7 +20,7 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Any, Iterable, Mapping, NamedTuple, Sequence
 
-from ..errors import DataError, InputFileError
+from ..errors import InputFileError
 
 TABLE_SUFFIXES = {".csv": ",", ".tsv": "\t", ".parquet": None, ".pq": None}
 CLAIM_SUFFIXES = (".yaml", ".yml", ".json")

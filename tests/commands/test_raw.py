@@ -113,7 +113,7 @@ def test_truncated_npy_exits_2(data):
 @pytest.mark.parametrize("argv, words", [
     (["--bootstrap", "-1"], "bootstrap must be at least 0"),
     (["--level", "1.5"], "level must lie between 0 and 1"),
-    (["--threshold", "nan"], "expected a finite number"),
+    (["--threshold", "nan"], "must be a finite number"),
     (["--qubits", "x"], "qubits must be a whole number"),
 ])
 def test_bad_options_exit_2(data, argv, words):

@@ -1,0 +1,39 @@
+"""Option parsers the subcommands share: each turns bad text into one argparse
+message that says what is allowed."""
+
+from __future__ import annotations
+
+import argparse
+import math
+
+
+def finite(text: str) -> float:
+    try:
+        x = float(text)
+    except ValueError:
+        x = math.nan
+    if not math.isfinite(x):
+        raise argparse.ArgumentTypeError(f"must be a finite number, got {text!r}")
+    return x
+
+
+def whole(low: int, what: str):
+    """A parser for whole numbers of at least ``low`` (``2.5e7`` is accepted)."""
+    def parse(text: str) -> int:
+        try:
+            x = float(text)
+        except ValueError:
+            x = math.nan
+        if not (math.isfinite(x) and x == math.floor(x)):
+            raise argparse.ArgumentTypeError(f"{what} must be a whole number, got {text!r}")
+        if x < low:
+            raise argparse.ArgumentTypeError(f"{what} must be at least {low}, got {text}")
+        return int(x)
+    return parse
+
+
+def level(text: str) -> float:
+    x = finite(text)
+    if not 0.0 < x < 1.0:
+        raise argparse.ArgumentTypeError(f"level must lie between 0 and 1, got {text}")
+    return x
