@@ -37,6 +37,14 @@ def write_atomic(target: str | Path, data: str | bytes, inputs: Iterable[str | P
     if target.is_dir():
         raise OutputError(str(target), "is a directory", "give a file name for the report")
     payload = data.encode("utf-8") if isinstance(data, str) else data
+    try:
+        _write_through_temporary(target, folder, payload)
+    except OSError as exc:  # an unwritable folder, a full disk: one line, not a traceback
+        raise OutputError(str(target), f"cannot be written ({exc.strerror or exc})",
+                          "check the folder's permissions and free space") from None
+
+
+def _write_through_temporary(target: Path, folder: Path, payload: bytes) -> None:
     fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=folder)
     try:
         # mkstemp makes the file private (0600); a report is an ordinary file.

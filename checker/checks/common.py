@@ -40,6 +40,10 @@ def num_range(bounds: tuple[float, float], digits: int = 3) -> str:
 
 def p_text(log_p: float, digits: int = 2) -> str:
     """A p-value from its natural log, correct below the double-precision range."""
+    if math.isnan(log_p):
+        return "n/a"
+    if log_p == -math.inf:
+        return "0"
     if log_p > -700:
         return num(math.exp(log_p), digits)
     log10 = log_p / LN10

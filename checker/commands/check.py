@@ -37,19 +37,31 @@ def run(args, stdout, stderr) -> int:
     from ..output import refuse_overwriting_inputs, write_atomic
     from ..render.text import render_text, render_verdict_line
 
+    from pathlib import Path
+
+    from ..errors import OutputError
+
     for out in (args.markdown, args.html):
         if out:
             refuse_overwriting_inputs(out, [args.file])
+            if not Path(out).parent.is_dir():  # say so before writing the other report
+                raise OutputError(out, "its folder does not exist", "create the folder first")
+            if Path(out).is_dir():
+                raise OutputError(out, "is a directory", "give a file name for the report")
     claim = read_claim(args.file)
     report = run_checks(claim, args.only)
+    # Every report is rendered before any is written, so that a failure leaves no file behind.
+    written = []
     if args.markdown:
         from ..render.markdown import render_markdown
 
-        write_atomic(args.markdown, render_markdown(report, claim), [args.file])
+        written.append((args.markdown, render_markdown(report, claim)))
     if args.html:
         from ..render.html import render_html
 
-        write_atomic(args.html, render_html(report, claim), [args.file])
+        written.append((args.html, render_html(report, claim)))
+    for out, text in written:
+        write_atomic(out, text, [args.file])
     if args.json:
         from ..render.json import render_json
 

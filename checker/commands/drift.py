@@ -42,10 +42,17 @@ def run(args, stdout, stderr) -> int:
         if window[1] < window[0]:
             raise DataError(args.series, "the window ends before it starts", "give --window START END",
                             path="window")
+    import numpy as np
+
     try:
-        result = drift_analysis(times, estimates, errors, window=window, level=args.level, alpha=args.alpha)
+        # Overflow raises rather than passing inf and nonsense into the report.
+        with np.errstate(over="raise"):
+            result = drift_analysis(times, estimates, errors, window=window, level=args.level, alpha=args.alpha)
     except ValueError as exc:
         raise DataError(args.series, str(exc), "give at least three points at two or more times") from None
+    except ArithmeticError:  # OverflowError, FloatingPointError
+        raise DataError(args.series, "its times or values are so large that the fit overflows double precision",
+                        "rescale the time or estimate column (different units)") from None
     if args.json:
         from ..render.json import dumps
 
@@ -97,6 +104,11 @@ def read_series(name: str):
         raise DataError(name, f"cannot be read as CSV ({str(exc).strip().splitlines()[-1]})",
                         "comma-separated values with a header line") from None
     columns = [str(c) for c in frame.columns]
+    # pandas renames a repeated header "estimate" to "estimate.1".
+    repeated = [c.rsplit(".", 1)[0] for c in columns
+                if "." in c and c.rsplit(".", 1)[1].isdigit() and c.rsplit(".", 1)[0] in columns]
+    if repeated:
+        raise DataError(name, f"has the column {repeated[0]!r} twice", "each column appears once", line=1)
     missing = [c for c in ("time", "estimate") if c not in columns]
     if missing:
         raise DataError(name, f"has no {' or '.join(repr(m) for m in missing)} column; its columns are "

@@ -107,15 +107,22 @@ def run(args, stdout, stderr) -> int:
         return model.variance(value, inputs)
 
     given = getattr(args, count_name)
-    plan = plan_experiment(args.fidelity, threshold, variance_at, sigma, args.power, args.syst,
-                           highest=model.highest, counts=(given,) if given else ())
-    at = None
-    if given:
-        at = {count_name: given,
-              "smallest_detectable": smallest_detectable(threshold, variance_at, given, sigma, args.power,
-                                                         args.syst, model.highest),
-              "pass_probability": pass_probability(args.fidelity, threshold, plan.variance, given, sigma,
-                                                   args.syst)}
+    try:
+        plan = plan_experiment(args.fidelity, threshold, variance_at, sigma, args.power, args.syst,
+                               highest=model.highest, counts=(given,) if given else ())
+        at = None
+        if given:
+            at = {count_name: given,
+                  "smallest_detectable": smallest_detectable(threshold, variance_at, given, sigma, args.power,
+                                                             args.syst, model.highest),
+                  "pass_probability": pass_probability(args.fidelity, threshold, plan.variance, given, sigma,
+                                                       args.syst)}
+    except ArithmeticError:  # OverflowError, ZeroDivisionError: numbers beyond double precision
+        from ..errors import ClaimcheckError
+
+        raise ClaimcheckError("claimcheck plan", "the values given put the sample count beyond double precision "
+                              "(a difference F - T or a systematic too small or too large)",
+                              "give --fidelity, --threshold, --syst and --sd of ordinary size") from None
     if args.json:
         from ..render.json import dumps
 

@@ -120,17 +120,20 @@ class Table:
             raise DataError(self.path, problem, allowed, path=column, line=row + 2)
         raise DataError(self.path, f"row {row + 1}: {problem}", allowed, path=column)
 
-    def check_probability(self, start: int, p: np.ndarray) -> None:
-        """Raise at the first row whose probability is not a number in [0, 1]."""
+    def check_probability(self, start: int, p: np.ndarray) -> np.ndarray:
+        """Raise at the first row whose probability is not a number in [0, 1];
+        return ``p``, with any -0.0 made +0.0 (the value bins read the bits)."""
         if p.size == 0:
-            return
+            return p
         # One pass: as unsigned integers the bit patterns of 0.0 ... 1.0 are
         # exactly 0 ... _ONE_BITS; negatives (sign bit), NaN and infinities lie above.
         if p.view(np.uint64).max() <= _ONE_BITS:
-            return
+            return p
         bad = ~((p >= 0.0) & (p <= 1.0))  # the slow path; -0.0 passes here
         if not bad.any():
-            return
+            # Only negative zeros set the sign bit: adding +0.0 clears it (a copy,
+            # since p may be a read-only memory map or a reused buffer).
+            return p + 0.0
         i = int(np.flatnonzero(bad)[0])
         v = float(p[i])
         nan_word = "is missing or NaN" if self.kind == "csv" else "is NaN (not a number)"
@@ -149,7 +152,7 @@ class Table:
 
     def make_chunk(self, start: int, p: np.ndarray, circuit, heavy) -> Chunk:
         p = np.ascontiguousarray(p, dtype=np.float64)
-        self.check_probability(start, p)
+        p = self.check_probability(start, p)
         codes = None
         if circuit is not None:
             codes = self._coder.codes(circuit)
@@ -305,7 +308,7 @@ def _read_npy_header(handle, name: str, member: str = ""):
         elif version == (2, 0):
             shape, fortran, dtype = npy_format.read_array_header_2_0(handle)
         else:
-            shape, fortran, dtype = npy_format._read_array_header(handle, version)
+            raise ValueError(f"NPY format version {version[0]}.{version[1]} is not supported")
     except (ValueError, OSError, EOFError, SyntaxError, zipfile.BadZipFile, zlib.error) as exc:
         raise DataError(name, f"{where.strip() + ' ' if where else ''}is not a readable NPY array "
                         f"({_first_line(exc)})", "save the array with numpy.save") from None
