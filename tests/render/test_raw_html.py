@@ -192,8 +192,10 @@ def test_no_partial_file_when_writing_fails(inputs, tmp_path, monkeypatch):
         raise OSError(28, "No space left on device")
 
     monkeypatch.setattr(output.os, "replace", broken_replace)
-    with pytest.raises(OSError):
-        run(["raw", str(data), "--claim", str(claim), "--html", str(out), *RAW_ARGS], io.StringIO(), io.StringIO())
+    err = io.StringIO()
+    # A full disk is an unusable output: one line and exit 2, never a traceback.
+    assert run(["raw", str(data), "--claim", str(claim), "--html", str(out), *RAW_ARGS], io.StringIO(), err) == 2
+    assert err.getvalue().count("\n") == 1 and "No space left" in err.getvalue()
     assert out.read_text(encoding="utf-8") == "old report"
     assert [p.name for p in tmp_path.iterdir()] == ["report.html"]  # the temporary file is gone
 
