@@ -41,6 +41,10 @@ def check(claim: Claim) -> Iterator[Finding]:
         yield Finding("skip", "Cochran's Q needs each part's stat_error (or its samples, for the "
                       "metric model to give one).", details={"missing": ["parts.stat_error"]})
         return
+    if not math.isfinite(het.q):
+        yield Finding("skip", "Cochran's Q overflows: some part's stat_error is too small to weigh "
+                      "against the others.", details={"missing": []})
+        return
     tol = claim.tolerance
     s = het.scale_factor
     details = {"Q": het.q, "df": het.df, "p_Q": het.p_q, "I2": het.i2, "H": het.h,

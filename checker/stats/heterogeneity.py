@@ -96,6 +96,8 @@ def log_p_chi2(q: float, df: int) -> float:
     """
     from scipy.special import chdtrc
 
+    if math.isinf(q):
+        return -math.inf
     p = float(chdtrc(df, max(q, 0.0)))
     if p > 1e-300:
         return math.log(p)
