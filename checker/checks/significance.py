@@ -182,6 +182,22 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
                   reported=p.value, recomputed=finite_or_none(math.exp(stated[1])), details=details)
 
 
+def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree, recomputed_words,
+             agree_words, recomputed, stated, conv_words, details) -> Finding:
+    """One printed quantity (sigma, or p in log space) against its recomputation
+    under the stated convention; on a disagreement, the first other convention
+    (fewest changes first) that reproduces the print."""
+    if agree(printed_bounds, pick(mine)):
+        return Finding("pass", f"{printed_words} agrees with {agree_words} ({conv_words}).",
+                       reported=printed.value, recomputed=recomputed, details=details)
+    other = next((r for r in results if r is not mine and agree(printed_bounds, pick(r))), None)
+    reproduce = _differs(other.convention, stated) if other else None
+    tail = f"; it would follow with {convention_text(reproduce)}" if other else "; no convention reproduces it"
+    return Finding("fail", f"{printed_words}, but estimate, threshold and errors give {recomputed_words} "
+                   f"({conv_words}){tail}.", reported=printed.value, recomputed=recomputed,
+                   reproduced_by=reproduce, details=details)
+
+
 def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     sig = claim.significance
     stated = stated_convention(claim)
@@ -205,35 +221,19 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                "tolerance": tol}
     sigma_mid = (mine.sigma[0] + mine.sigma[1]) / 2
     if sig.sigma is not None:
-        if agrees(sig.sigma.bounds, mine.sigma, tol):
-            yield Finding("pass", f"Printed {sig.sigma.text} sigma agrees with the {num_range(mine.sigma)} "
-                          f"recomputed from estimate, threshold and errors ({conv_words}).",
-                          reported=sig.sigma.value, recomputed=sigma_mid, details={**details, "quantity": "sigma"})
-        else:
-            other = next((r for r in results if r is not mine and agrees(sig.sigma.bounds, r.sigma, tol)), None)
-            tail = (f"; it would follow with {convention_text(_differs(other.convention, stated))}"
-                    if other else "; no convention reproduces it")
-            yield Finding("fail", f"Printed {sig.sigma.text} sigma, but estimate, threshold and errors give "
-                          f"{num_range(mine.sigma)} sigma ({conv_words}){tail}.",
-                          reported=sig.sigma.value, recomputed=sigma_mid,
-                          reproduced_by=_differs(other.convention, stated) if other else None,
-                          details={**details, "quantity": "sigma"})
+        yield _compare(f"Printed {sig.sigma.text} sigma", sig.sigma, sig.sigma.bounds, results, mine,
+                       lambda r: r.sigma, lambda a, b: agrees(a, b, tol),
+                       f"{num_range(mine.sigma)} sigma",
+                       f"the {num_range(mine.sigma)} recomputed from estimate, threshold and errors",
+                       sigma_mid, stated, conv_words,
+                       {**details, "quantity": "sigma"})
     if sig.p_value is not None and is_probability(sig.p_value):
-        printed = log_bounds(sig.p_value)
         p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
-        if agrees_log(printed, mine.log_p, tol):
-            yield Finding("pass", f"Printed p = {sig.p_value.text} agrees with the recomputed "
-                          f"p = {p_range_text(mine.log_p)} ({conv_words}).",
-                          reported=sig.p_value.value, recomputed=p_mid, details={**details, "quantity": "p_value"})
-        else:
-            other = next((r for r in results if r is not mine and agrees_log(printed, r.log_p, tol)), None)
-            tail = (f"; it would follow with {convention_text(_differs(other.convention, stated))}"
-                    if other else "; no convention reproduces it")
-            yield Finding("fail", f"Printed p = {sig.p_value.text}, but estimate, threshold and errors give "
-                          f"p = {p_range_text(mine.log_p)} ({conv_words}){tail}.",
-                          reported=sig.p_value.value, recomputed=p_mid,
-                          reproduced_by=_differs(other.convention, stated) if other else None,
-                          details={**details, "quantity": "p_value"})
+        yield _compare(f"Printed p = {sig.p_value.text}", sig.p_value, log_bounds(sig.p_value), results, mine,
+                       lambda r: r.log_p, lambda a, b: agrees_log(a, b, tol),
+                       f"p = {p_range_text(mine.log_p)}", f"the recomputed p = {p_range_text(mine.log_p)}",
+                       p_mid, stated, conv_words,
+                       {**details, "quantity": "p_value"})
     if sig.sigma is None and sig.p_value is None:
         yield Finding("pass", f"No significance is printed; estimate, threshold and errors give "
                       f"{num_range(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
