@@ -61,9 +61,24 @@ def log_p_marginalized(distance: float, stat_error: float, syst_error: float) ->
                           method="bounded", options={"xatol": width * 1e-6})
     peak = float(res.x)
     log_peak = log_integrand(peak)
-    span = 40.0 * max(width, 1e-300)
+    # The peak is `width` wide where both factors bend, but when the systematic
+    # dominates the tail factor is a step at `distance` and the mass spreads over
+    # the systematic's own scale on the step's open side, so span that (width <= syst_error).
+    # quad's first Kronrod nodes can step over a feature much narrower than the
+    # range and report a tiny error for a wrong value, so break the range at
+    # geometrically spaced offsets around the peak and the step.
+    span = 40.0 * syst_error
+    low, high = peak - span, peak + span
+    breaks = set()
+    for centre in (peak, distance):
+        offset = width
+        while offset < span:
+            breaks.update(b for b in (centre - offset, centre + offset) if low < b < high)
+            offset *= 4.0
+        if low < centre < high:
+            breaks.add(centre)
     value, _ = integrate.quad(lambda d: math.exp(log_integrand(d) - log_peak),
-                              peak - span, peak + span, points=[peak], limit=200,
+                              low, high, points=sorted(breaks), limit=100 + 2 * len(breaks),
                               epsabs=0.0, epsrel=1e-10)
     return float(min(0.0, log_peak + math.log(value)))
 
