@@ -8,7 +8,7 @@ References
 S. Boixo et al., Nature Physics 14, 595 (2018), arXiv:1608.00263.
 """
 
-from ..stats.porter_thomas import linear_xeb_variance
+from ..stats.porter_thomas import fidelity_from_linear_xeb, linear_xeb_variance
 from .base import MetricModel, ModelInputs
 
 
@@ -21,4 +21,6 @@ class LinearXEB(MetricModel):
     hard_bounds = False
 
     def variance(self, value: float, inputs: ModelInputs) -> float:
-        return linear_xeb_variance(min(max(value, -1.0), 1.0), inputs.dimension)
+        # The printed value is mean(x) - 1, which at finite D is F (D - 1)/(D + 1).
+        fidelity = fidelity_from_linear_xeb(value, inputs.dimension)
+        return linear_xeb_variance(min(max(fidelity, -1.0), 1.0), inputs.dimension)

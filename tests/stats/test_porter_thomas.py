@@ -11,8 +11,8 @@ import pytest
 from scipy import integrate, optimize
 from scipy.stats import beta
 
-from checker.stats.porter_thomas import (EULER_GAMMA, dimension_of, linear_xeb_moments, linear_xeb_variance,
-                                         log_xeb_variance)
+from checker.stats.porter_thomas import (EULER_GAMMA, dimension_of, fidelity_from_linear_xeb, linear_xeb_moments,
+                                         linear_xeb_variance, log_xeb_variance)
 
 # Boixo et al., "Characterizing quantum supremacy in near-term devices", Nature Physics 14,
 # 595 (2018), arXiv:1608.00263: the ideal probability of one outcome of a random circuit is
@@ -62,6 +62,19 @@ def test_ideal_sampling_at_finite_dimension_is_not_one():
     # (a derivation; here the integral of the size-biased Beta density says so).
     for d in (2, 16, 1024):
         assert integrate_beta(lambda x: x, d, ideal=True) - 1 == pytest.approx((d - 1) / (d + 1), rel=1e-9)
+
+
+@pytest.mark.parametrize("dimension", [2, 16, None])
+def test_fidelity_behind_an_expected_estimate(dimension):
+    # The estimate mean(x) - 1 that the fidelity mixture produces, integrated, maps back to F.
+    for fidelity in (0.1, 0.8):
+        if dimension is None:
+            mean = mixture_moment(lambda x: x, fidelity)
+        else:
+            mean = (fidelity * integrate_beta(lambda x: x, dimension, True)
+                    + (1 - fidelity) * integrate_beta(lambda x: x, dimension, False))
+        dim = None if dimension is None else float(dimension)
+        assert fidelity_from_linear_xeb(mean - 1.0, dim) == pytest.approx(fidelity, rel=1e-9)
 
 
 @pytest.mark.parametrize("fidelity", [0.0, 0.002, 0.3, 0.7, 1.0])
