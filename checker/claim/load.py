@@ -172,16 +172,20 @@ def _convert(node, path, name, texts, lines, seen, depth):
                              f"a claim file nests at most {MAX_DEPTH} levels",
                              path=dotted(path), line=node.start_mark.line + 1)
     if id(node) in seen:
+        # The node is the anchored one, so its own mark is the anchor's line; the
+        # alias's line is its field's.
         raise InputFileError(name, "uses a YAML alias (*name)",
                              "write each value out; anchors and aliases are not accepted",
-                             path=dotted(path), line=node.start_mark.line + 1)
+                             path=dotted(path), line=lines.get(path, node.start_mark.line + 1))
+    # The composer hands back the anchored node itself for every alias, so a node
+    # met twice anywhere in the tree (not only among its ancestors) is an alias.
+    seen.add(id(node))
     if node.tag not in _STANDARD_TAGS:
         raise InputFileError(name, f"uses the YAML tag {node.tag!r}",
                              "plain values only; tags are not accepted",
                              path=dotted(path), line=node.start_mark.line + 1)
     lines.setdefault(path, node.start_mark.line + 1)
     if isinstance(node, yaml.MappingNode):
-        seen = seen | {id(node)}
         out: dict = {}
         for key_node, value_node in node.value:
             if not isinstance(key_node, yaml.ScalarNode):
@@ -201,7 +205,6 @@ def _convert(node, path, name, texts, lines, seen, depth):
             out[key] = _convert(value_node, path + (key,), name, texts, lines, seen, depth + 1)
         return out
     if isinstance(node, yaml.SequenceNode):
-        seen = seen | {id(node)}
         return [_convert(item, path + (i,), name, texts, lines, seen, depth + 1)
                 for i, item in enumerate(node.value)]
     value = node.value
@@ -351,6 +354,8 @@ def document_from_mapping(mapping: Mapping[str, Any], name: str = "<mapping>") -
             if isinstance(value, float) and not math.isfinite(value):
                 raise InputFileError(name, f"the number {value} is not finite",
                                      "numbers must be finite", path=dotted(path))
+            # numpy.float64 is a float whose repr is "np.float64(0.25)": use the plain one.
+            value = float(value) if isinstance(value, float) else int(value)
             texts[path] = repr(value)
             return value
         if hasattr(value, "item") and callable(value.item):  # numpy scalars
