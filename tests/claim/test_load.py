@@ -195,7 +195,7 @@ def test_too_deep(fmt):
 
 @pytest.mark.parametrize("fmt", ["yaml", "json"])
 def test_far_too_deep_for_the_parser_is_still_one_error(fmt):
-    text = '{"x": ' + "[" * 20_000 + "]" * 20_000 + "}"
+    text = '{"x": ' + "[" * 5_000 + "]" * 5_000 + "}"
     with pytest.raises(InputFileError, match="nested too deeply"):
         parse_text(text, "c." + fmt, fmt)
 

@@ -111,3 +111,18 @@ def test_sidak_against_the_plain_formula_and_the_bonferroni_bound(p, trials):
     direct = math.log(-math.expm1(trials * math.log1p(-p)))
     assert sidak == pytest.approx(direct, rel=1e-9, abs=1e-12)
     assert log_p - 1e-12 <= sidak <= log_bonferroni(log_p, trials) + 1e-12
+
+
+def test_sidak_near_one_keeps_its_digits():
+    # p = 0.2, N = 1000: 1 - p_g = 0.8^1000 = 1.23e-97, so log p_g = -1.23e-97 (not 0, whose
+    # one-sided sigma is -infinity).  log1p is the textbook remedy (common practice).
+    q = 1000 * math.log(0.8)
+    assert log_sidak(math.log(0.2), 1000) == pytest.approx(-math.exp(q), rel=1e-12)
+    assert math.isfinite(sigma_from_log_p(log_sidak(math.log(0.2), 1000), "one"))
+
+
+def test_sidak_when_the_local_p_rounds_to_one():
+    # log p = -1e-20 is p = 1 - 1e-20, which a double rounds to 1; one trial must give it back.
+    assert log_sidak(-1e-20, 1) == pytest.approx(-1e-20, rel=1e-9)
+    # Ten trials: 1 - (1e-20)^10 = 1 - 1e-200, whose log is -1e-200.
+    assert log_sidak(-1e-20, 10) == pytest.approx(-1e-200, rel=1e-9)
