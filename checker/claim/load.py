@@ -172,13 +172,12 @@ def _convert(node, path, name, texts, lines, seen, depth):
                              f"a claim file nests at most {MAX_DEPTH} levels",
                              path=dotted(path), line=node.start_mark.line + 1)
     if id(node) in seen:
-        # The node is the anchored one, so its own mark is the anchor's line; the
-        # alias's line is its field's.
+        # The composer hands an alias back as the very node it names: a node met
+        # twice is an alias.  Refusing it also stops exponential "laughs" documents.
+        # That node's own mark is the anchor's line; the alias's line is its field's.
         raise InputFileError(name, "uses a YAML alias (*name)",
                              "write each value out; anchors and aliases are not accepted",
                              path=dotted(path), line=lines.get(path, node.start_mark.line + 1))
-    # The composer hands back the anchored node itself for every alias, so a node
-    # met twice anywhere in the tree (not only among its ancestors) is an alias.
     seen.add(id(node))
     if node.tag not in _STANDARD_TAGS:
         raise InputFileError(name, f"uses the YAML tag {node.tag!r}",

@@ -1,0 +1,132 @@
+"""Draft referee notes in Markdown: a two-line summary, numbered points in
+plain words, the passes in brief, and the standing caution.
+
+Readable pasted as plain text into a journal's review form and rendered as
+Markdown alike.  Every user-supplied string (title, source, labels, component
+names, and the findings' messages that quote them) is escaped so that it
+shows as written and cannot add markup.
+"""
+
+from __future__ import annotations
+
+import re
+
+from ..claim.model import Claim
+from ..report import Report
+from .notes import (CAUTION, CHECK_TITLES, Point, STATUS_WORDS, field_words, is_plain_number, one_line, points,
+                    summary_lines)
+
+# CommonMark lets a backslash escape any ASCII punctuation.  Escape what could
+# start markup mid-line; leave intraword underscores ("stat_error") alone, since
+# they never make emphasis and escaping them would clutter the plain text.
+_ALWAYS = re.compile(r"([\\`*\[\]<>|~])")
+_LOOSE_UNDERSCORE = re.compile(r"(?<![0-9A-Za-z])_|_(?![0-9A-Za-z])")
+_ENTITY = re.compile(r"&(?=#?[0-9A-Za-z]+;)")
+_CLOSING_HASHES = re.compile(r"(^|\s)(#+)$")  # would close an ATX heading and vanish
+
+
+def md(text: object) -> str:
+    """A user-supplied string as Markdown text that shows exactly as written."""
+    s = one_line(text)
+    s = _ALWAYS.sub(r"\\\1", s)
+    s = _LOOSE_UNDERSCORE.sub(r"\\_", s)
+    s = _ENTITY.sub(r"\\&", s)
+    s = _CLOSING_HASHES.sub(lambda m: m.group(1) + "\\" + "\\".join(m.group(2)), s)
+    return s
+
+
+def _code(text: str) -> str:
+    """Inline code for a printed number or field path; the fence outgrows any backtick run."""
+    text = one_line(text)
+    longest = max((len(m) for m in re.findall(r"`+", text)), default=0)
+    fence = "`" * (longest + 1)
+    pad = " " if text.startswith("`") or text.endswith("`") else ""
+    return f"{fence}{pad}{text}{pad}{fence}"
+
+
+def _point_block(n: int, p: Point) -> list[str]:
+    mark = STATUS_WORDS[p.status]
+    lines = [f"{n}. **{md(p.heading)}** ({mark}). {md(p.message)}", ""]
+    indent = "   "
+    if p.printed is not None:
+        name = field_words(p.printed_field)
+        what = f"{md(name)} " if name else ""
+        where = f" (field {_code(p.printed_field)})" if p.printed_field else ""
+        lines.append(f"{indent}- Printed: {what}{_code(p.printed)}{where}.")
+    if p.implied is not None:
+        shown = _code(p.implied) if is_plain_number(p.implied) else md(p.implied)
+        lines.append(f"{indent}- The claim's inputs imply: {shown}.")
+    if p.reproduced is not None:
+        lines.append(f"{indent}- The print would follow {md(p.reproduced)}.")
+    elif p.unmatched:
+        lines.append(f"{indent}- No convention or method we tried reproduces the print.")
+    if p.question:
+        lines.append(f"{indent}- Suggested question: {md(p.question)}")
+    lines.append("")
+    return lines
+
+
+def _brief_passes(agreed: list[Point]) -> list[str]:
+    """One line per check: its one message, or for a check that agreed on the
+    headline and on every part, which ones, without repeating the sentence."""
+    by_check: dict[str, list[Point]] = {}
+    for p in agreed:
+        by_check.setdefault(p.check, []).append(p)
+    lines = []
+    for group in by_check.values():
+        title = CHECK_TITLES.get(group[0].check, group[0].heading)
+        if len(group) == 1:
+            lines.append(f"- {md(group[0].heading)}: {md(group[0].message)}")
+        elif all(p.part is not None for p in group[1:]) and sum(p.part is None for p in group) <= 1:
+            where = ["the headline"] * (group[0].part is None) + [f"part {p.part}" for p in group if p.part]
+            lines.append(f"- {md(title)}: agrees for {md(_join(where))}.")
+        else:
+            lines.append(f"- {md(title)}: " + " ".join(md(p.message) for p in group))
+    return lines
+
+
+def _join(items: list[str]) -> str:
+    return items[0] if len(items) == 1 else ", ".join(items[:-1]) + " and " + items[-1]
+
+
+def render_markdown(report: Report, claim: Claim) -> str:
+    """Draft referee notes for one claim.
+
+    Parameters
+    ----------
+    report : Report
+        The findings of ``run_checks(claim)``.
+    claim : Claim
+        The claim, for its title, source and printed numbers.
+
+    Returns
+    -------
+    str
+        Markdown text ending in a newline; the same input always gives the
+        same bytes.
+    """
+    first, second = summary_lines(report)
+    out = [f"# Referee notes: {md(claim.title)}", ""]
+    out += [md(first), "", md(second), ""]
+    where = f"Numbers as read from {_code(report.file)}"
+    if claim.source:
+        where += f" (source: {md(claim.source)})"
+    out += [where + f"; metric {_code(claim.metric)}, headline estimate {_code(claim.estimate.text)}.", ""]
+
+    raised = list(points(report, claim, ("fail", "warn")))
+    if raised:
+        out += ["## Points to raise", ""]
+        for n, p in enumerate(raised, 1):
+            out += _point_block(n, p)
+    agreed = list(points(report, claim, ("pass",)))
+    if agreed:
+        out += ["## What agrees", ""]
+        out += _brief_passes(agreed)
+        out.append("")
+    skipped = list(points(report, claim, ("skip",)))
+    if skipped:
+        out += ["## Not checked", ""]
+        out += [f"- {md(p.heading)}: {md(p.message)}" for p in skipped]
+        out.append("")
+    out += ["---", "", f"*{md(CAUTION)}*", ""]
+    return "\n".join(out)

@@ -1,0 +1,118 @@
+"""Tests of checker/render/notes.py: findings turned into points a referee
+raises, and the printed numbers they are about."""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from checker.render.notes import (convention_words, make_point, num, num_range, printed_for,
+                                  printed_numbers, summary_lines)
+from checker.report import Finding, Report
+
+from render_fixtures import four_parts_report, load, sidedness_report
+
+
+@pytest.mark.parametrize("x, text", [
+    (0.0, "0"), (2.4578e-9, "2.46e-9"), (0.000157, "0.000157"), (4.6849, "4.68"), (1200.0, "1200"),
+    (2.5e7, "2.5e7"), (-3.0, "-3"), (math.nan, "n/a"), (math.inf, "n/a"), (None, "n/a"), (True, "n/a"),
+])
+def test_num(x, text):
+    assert num(x) == text
+
+
+def test_num_range_collapses_equal_ends():
+    assert num_range(5.741, 6.07) == "5.74 to 6.07"
+    assert num_range(5.5512, 5.5549) == "5.55"
+
+
+@pytest.mark.parametrize("conv, words", [
+    ({"sided": "two"}, "under the two-sided convention (both tails)"),
+    ({"systematics": "quadrature"}, "with the systematic error added in quadrature"),
+    ({"error_at": "threshold"}, "with the standard error taken at the threshold (under the null)"),
+    ({"method": "inverse-variance"}, "with inverse-variance weights"),
+    ({"method": "wilson"}, "with the Wilson interval"),
+    ({"samples": 26000000}, "with about 2.6e7 samples"),
+    ({"sided": "two", "systematics": "none"},
+     "under the two-sided convention (both tails) and with the systematic error left out of the significance"),
+    ({"unheard_of": "x"}, "with unheard of x"),
+    (None, None), ({}, None),
+])
+def test_convention_words(conv, words):
+    assert convention_words(conv) == words
+
+
+def test_printed_numbers_keep_their_text(monkeypatch):
+    claim = load("four_parts.yaml", monkeypatch)
+    by_path = {r.path: r.text for r in printed_numbers(claim)}
+    assert by_path["stat_error"] == "0.19e-3"
+    assert by_path["parts.1.estimate"] == "1.25e-3"
+    assert by_path["error_budget.1.count"] == "1200"
+    assert by_path["combination.stat_error"] == "0.16e-3"
+
+
+def test_printed_for_uses_field_quantity_part_and_value(monkeypatch):
+    claim = load("four_parts.yaml", monkeypatch)
+    by_quantity = Finding("pass", "m", reported=4.7, details={"quantity": "sigma"}, check="significance")
+    assert printed_for(by_quantity, claim).path == "significance.sigma"
+    by_part = Finding("pass", "m", reported=0.33e-3, details={"part": "family D"}, check="error-floor")
+    assert printed_for(by_part, claim).path == "parts.3.stat_error"
+    by_field = Finding("fail", "m", reported=1.0e-3, details={"field": "threshold"}, check="bounds")
+    assert printed_for(by_field, claim).path == "threshold"
+    by_value = Finding("warn", "m", reported=0.0062, check="some-new-check")
+    assert printed_for(by_value, claim).path == "error_budget.0.error"
+    nowhere = Finding("warn", "m", reported=123.456, check="some-new-check")
+    assert printed_for(nowhere, claim) is None
+
+
+def test_flag_without_a_reproducing_convention(monkeypatch):
+    claim = load("sidedness_slip.yaml", monkeypatch)
+    f = Finding("fail", "Printed 5.9 sigma, but ... no convention reproduces it.", reported=5.9,
+                recomputed=4.1, details={"quantity": "sigma", "sigma_low": 4.0, "sigma_high": 4.2},
+                check="significance")
+    p = make_point(f, claim)
+    assert p.printed == "5.9" and p.printed_field == "significance.sigma"
+    assert p.implied == "4 to 4.2"
+    assert p.reproduced is None and p.unmatched
+    assert p.question.startswith("How was the significance computed")
+
+
+def test_heterogeneity_point_reads_the_contract(monkeypatch):
+    report, claim = four_parts_report(monkeypatch)
+    het = next(f for f in report.findings if f.check == "heterogeneity")
+    p = make_point(het, claim)
+    assert p.implied.startswith("Cochran's Q = 11.9 on 3 degrees of freedom, p = 0.0079")
+    assert not p.unmatched  # disagreeing parts are not a print to reproduce
+    assert "Birge ratio" in p.question
+
+
+def test_part_label_not_repeated_when_the_message_names_it(monkeypatch):
+    report, claim = four_parts_report(monkeypatch)
+    floors = [make_point(f, claim) for f in report.findings if f.check == "error-floor"]
+    assert all(p.heading == "Statistical error against the sampling floor" for p in floors)
+    other = make_point(Finding("pass", "fine", details={"part": "family B"}, check="combination"), claim)
+    assert other.heading == "Combination of the parts, part family B"
+
+
+def test_summary_lines(monkeypatch):
+    report, _ = sidedness_report(monkeypatch)
+    first, second = summary_lines(report)
+    assert first == ("claimcheck held this claim's printed numbers against what its own inputs imply, "
+                     "in 7 comparisons: 1 does not follow and 6 agree.")
+    assert second == "Verdict: inconsistent. Worth raising with the authors: significance."
+    empty = Report("t", "f", (Finding("skip", "needs threshold", check="significance"),))
+    assert summary_lines(empty) == (
+        "claimcheck could compare none of this claim's printed numbers with its inputs (1 check lacks "
+        "its inputs).",
+        "Verdict: incomplete. The claim would need the inputs listed under 'Not checked'.")
+
+
+def test_required_sigma_point_shows_the_recomputed_range(monkeypatch):
+    claim = load("sidedness_slip.yaml", monkeypatch)
+    f = Finding("fail", "Recomputed 3.1 to 3.4 sigma falls short of the required 5 sigma.", reported=5.0,
+                recomputed=3.25, details={"quantity": "required_sigma", "sigma_low": 3.1, "sigma_high": 3.4,
+                                          "required": 5.0}, check="significance")
+    p = make_point(f, claim)
+    assert (p.printed, p.printed_field, p.implied) == ("5", "significance.required_sigma", "3.1 to 3.4")
+    assert not p.unmatched and p.question.startswith("On what basis does the claim reach")
