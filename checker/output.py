@@ -39,6 +39,10 @@ def write_atomic(target: str | Path, data: str | bytes, inputs: Iterable[str | P
     payload = data.encode("utf-8") if isinstance(data, str) else data
     fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=folder)
     try:
+        # mkstemp makes the file private (0600); a report is an ordinary file.
+        umask = os.umask(0)
+        os.umask(umask)
+        os.fchmod(fd, 0o666 & ~umask)
         with os.fdopen(fd, "wb") as handle:
             handle.write(payload)
         os.replace(tmp, target)

@@ -1,7 +1,8 @@
 """Shared fixtures: claim files written into a temporary folder and checked.
 
-The folders under tests/ have no ``__init__.py``; every test file name is
-unique across them, so pytest's default import mode finds each one.
+The folders under tests/ have no ``__init__.py``; pytest runs with
+--import-mode=importlib (pyproject.toml), so helpers are fixtures here rather
+than modules to import.
 """
 
 from __future__ import annotations

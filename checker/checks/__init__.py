@@ -12,6 +12,7 @@ from typing import Callable, Iterable, Iterator
 from ..claim.model import Claim
 from ..report import Finding, Report
 from . import bounds, error_floor, look_elsewhere, significance
+from . import combination, heterogeneity, extrapolation, error_budget, interval, granularity  # noqa: E402,I001
 
 CheckFunction = Callable[[Claim], Iterator[Finding]]
 
@@ -20,6 +21,12 @@ REGISTRY: dict[str, CheckFunction] = {
     "error-floor": error_floor.check,
     "significance": significance.check,
     "look-elsewhere": look_elsewhere.check,
+    "combination": combination.check,
+    "heterogeneity": heterogeneity.check,
+    "extrapolation": extrapolation.check,
+    "error-budget": error_budget.check,
+    "interval": interval.check,
+    "granularity": granularity.check,
 }
 
 

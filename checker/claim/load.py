@@ -134,8 +134,40 @@ def parse_text(text: str, name: str, fmt: str) -> Document:
 
 # --- YAML -----------------------------------------------------------------
 
+def _refuse_deep_nesting(text: str, name: str) -> None:
+    """Walk the parser's events (iteratively) and stop at the first level past
+    MAX_DEPTH, before the recursive composer would spend seconds on it."""
+    # Flow brackets first: PyYAML's scanner slows quadratically with their depth.
+    depth = deepest = 0
+    quote = ""
+    for char in text:
+        if quote:
+            quote = "" if char == quote else quote
+        elif char in "\"'":
+            quote = char
+        elif char in "[{":
+            depth += 1
+            deepest = max(deepest, depth)
+        elif char in "]}":
+            depth -= 1
+    if deepest > MAX_DEPTH:
+        raise InputFileError(name, "is nested too deeply",
+                             f"a claim file nests at most {MAX_DEPTH} levels")
+    depth = 0
+    for event in yaml.parse(text, Loader=yaml.SafeLoader):
+        if isinstance(event, (yaml.MappingStartEvent, yaml.SequenceStartEvent)):
+            depth += 1
+            if depth > MAX_DEPTH:
+                raise InputFileError(name, "is nested too deeply",
+                                     f"a claim file nests at most {MAX_DEPTH} levels",
+                                     line=event.start_mark.line + 1)
+        elif isinstance(event, (yaml.MappingEndEvent, yaml.SequenceEndEvent)):
+            depth -= 1
+
+
 def _compose(text: str, name: str):
     try:
+        _refuse_deep_nesting(text, name)
         nodes = list(yaml.compose_all(text, Loader=yaml.SafeLoader))
     except yaml.MarkedYAMLError as exc:
         mark = exc.problem_mark or exc.context_mark

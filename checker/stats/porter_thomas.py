@@ -40,7 +40,7 @@ def linear_xeb_moments(fidelity: float, dimension: float | None = None) -> tuple
     """
     f = fidelity
     if dimension is None or math.isinf(dimension):
-        return 1.0 + f, 1.0 + 2.0 * f - f * f
+        return 1.0 + f, max(0.0, 1.0 + 2.0 * f - f * f)  # negative below F = 1 - sqrt(2)
     d = float(dimension)
     m_uniform_1, m_uniform_2 = 1.0, 2.0 * d / (d + 1.0)
     m_ideal_1, m_ideal_2 = 2.0 * d / (d + 1.0), 6.0 * d * d / ((d + 1.0) * (d + 2.0))

@@ -262,7 +262,7 @@ def test_browser_catches_console_errors(tmp_path):
     # The detector itself: a page with a script error and a blocked outside
     # image must produce console lines, or the next test could never fail.
     bad = tmp_path / "bad.html"
-    bad.write_text(html_page("bad", [("s", '<img src="http://198.51.100.1/x.png"><script>nope()</script>')]),
+    bad.write_text(html_page("bad", [("s", '<img src="http://127.0.0.1:9/x.png"><script>nope()</script>')]),
                    encoding="utf-8")
     lines = _console_lines(_chromium(bad, tmp_path, "--enable-logging=stderr", "--v=0", "--dump-dom"))
     assert any("Content Security Policy" in line for line in lines)

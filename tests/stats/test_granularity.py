@@ -1,0 +1,71 @@
+"""checker.stats.granularity: the GRIM rule, on Brown and Heathers' examples
+and exactly on the edges of printed precision."""
+
+from __future__ import annotations
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from checker.stats.granularity import granularity
+from checker.stats.precision import parse_printed
+
+
+def interval(text):
+    p = parse_printed(text)
+    return p.low, p.high
+
+
+def test_grim_examples():
+    # Brown and Heathers, "The GRIM test", Social Psychological and Personality Science 8, 363
+    # (2017) (volume and pages from memory): a mean of 5.93 from 49 whole-number responses is
+    # impossible, 290/49 = 5.918 and 291/49 = 5.939 being the nearest.
+    g = granularity(*interval("5.93"), 49)
+    assert not g.possible and (g.below, g.above) == (290, 291)
+    # Same source: 20 die rolls cannot average 3.48, can average 3.45 (69/20).
+    assert not granularity(*interval("3.48"), 20).possible
+    g = granularity(*interval("3.45"), 20)
+    assert g.possible and g.counts == (69,)
+
+
+def test_the_rule_bites_only_below_ten_to_the_decimals():
+    # Brown and Heathers (2017): with d decimals the test can only fail when N < 10^d.
+    assert granularity(*interval("0.57"), 99).can_bite
+    assert not granularity(*interval("0.57"), 100).can_bite
+    assert granularity(*interval("0.57"), 100).possible
+
+
+def test_a_count_exactly_on_the_edge_of_the_printed_interval_fits():
+    # 1/8 = 0.125 is the edge of both "0.12" [0.115, 0.125] and "0.13" [0.125, 0.135]; one digit
+    # further, "0.11" [0.105, 0.115], no k/8 fits (common practice: round half either way).
+    assert granularity(*interval("0.12"), 8, 0, 8).counts == (1,)
+    assert granularity(*interval("0.13"), 8, 0, 8).counts == (1,)
+    g = granularity(*interval("0.11"), 8, 0, 8)
+    assert not g.possible and (g.below, g.above) == (0, 1)
+
+
+def test_float_products_do_not_lose_an_edge_count():
+    # 0.345 * 200 is 69.00000000000001 in binary floating point; 69/200 is still found.
+    assert granularity(0.345, 0.355, 200, 0, 200).counts == (69, 70, 71)
+
+
+def test_counts_stay_within_their_range():
+    g = granularity(*interval("1.00"), 8, 0, 8)
+    assert g.counts == (8,) and g.above is None
+    assert granularity(-0.5, -0.4, 10).counts == (-5, -4)
+
+
+def test_bad_units_are_refused():
+    with pytest.raises(ValueError):
+        granularity(0.1, 0.2, 0)
+    with pytest.raises(ValueError):
+        granularity(0.3, 0.2, 10)
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.integers(1, 5000), st.integers(0, 5000), st.integers(1, 4))
+def test_a_rounded_true_proportion_is_always_possible(n, k, decimals):
+    k = min(k, n)
+    text = f"{k / n:.{decimals}f}"
+    g = granularity(*interval(text), n, 0, n, keep=n + 1)
+    assert g.possible and k in g.counts
