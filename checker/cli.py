@@ -7,6 +7,7 @@ used (one line on stderr naming the file, the field and what is wrong).
 from __future__ import annotations
 
 import argparse
+import contextlib
 import importlib
 import sys
 import warnings
@@ -58,7 +59,9 @@ def run(argv=None, stdout=None, stderr=None) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
     parser, modules = build_parser()
     try:
-        args = parser.parse_args(argv)
+        # --help and --version print through sys.stdout; send them where run() was told.
+        with contextlib.redirect_stdout(stdout):
+            args = parser.parse_args(argv)
     except _UsageError as exc:
         stderr.write(f"claimcheck: {exc}; see claimcheck {argv[0] + ' ' if argv and argv[0] in modules else ''}--help\n")
         return 2

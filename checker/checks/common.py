@@ -40,15 +40,15 @@ def num_range(bounds: tuple[float, float], digits: int = 3) -> str:
 
 def p_text(log_p: float, digits: int = 2) -> str:
     """A p-value from its natural log, correct below the double-precision range."""
-    if math.isnan(log_p):
-        return "n/a"
-    if log_p == -math.inf:
-        return "0"
+    if not math.isfinite(log_p):  # sigma of 1e300: log p itself overflows
+        return "0" if log_p == -math.inf else "n/a"
     if log_p > -700:
         return num(math.exp(log_p), digits)
     log10 = log_p / LN10
     exponent = math.floor(log10)
     mantissa = 10 ** (log10 - exponent)
+    if float(f"{mantissa:.{digits - 1}f}") >= 10.0:  # 9.996 would print as "10.0e-350"
+        mantissa, exponent = mantissa / 10.0, exponent + 1
     return f"{mantissa:.{digits - 1}f}e{exponent}"
 
 

@@ -31,8 +31,22 @@ def _floor(claim: Claim, estimate: Reported, n: Reported, factor: tuple[float, f
     return over_box(se, [estimate.bounds, n.bounds, sd_box, factor])
 
 
+def _count_for(variance: float | None, scale: float, error: float) -> float | None:
+    """The count N with sqrt(variance / N) x scale = error; None when there is none
+    (no variance, no positive error, or an N beyond the double range)."""
+    if not variance or not error > 0:
+        return None
+    root = math.sqrt(variance) * scale / error  # a product overflows to inf, a power would raise
+    n = root * root
+    return n if math.isfinite(n) else None
+
+
 def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported | None,
-         factor: tuple[float, float], what: str, details: dict) -> Iterator[Finding]:
+         factor: tuple[float, float], what: str, details: dict,
+         samples: Reported | None = None) -> Iterator[Finding]:
+    """``n`` is the count of the metric's error convention; ``samples``, when it
+    is a different count (heavy output: circuits vs. all shots), sets the floor
+    that sampling alone imposes."""
     model = metric_of(claim)
     if error is None or n is None:
         missing = (["stat_error"] if error is None else []) + ([model.count_field] if n is None else [])
@@ -45,25 +59,52 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
                       details={**details, "missing": missing})
         return
     low, high = _floor(claim, estimate, n, factor)
-    if not math.isfinite(low):
-        yield Finding("skip", f"{what}: the model gives no finite error here.", details=details)
+    if not math.isfinite(low) or not high > 0:
+        # e.g. a proportion printed as 1 (or beyond it, which bounds reports): no sampling error
+        yield Finding("skip", f"{what}: the model gives no positive error here.", details=details)
         return
     tol = claim.tolerance
     count_name = "circuits" if n.path.endswith("circuits") else "samples"
+    # Var(mean over circuits of s shots) = Var(h_c)/n + E[h_c (1 - h_c)]/(n s) >= h (1 - h)/(n s):
+    # the binomial error over all shots is a true floor, the per-circuit one only a convention
+    # (Baldwin et al., arXiv:2110.14808: it over-covers at typical shot counts).
+    hard = _floor(claim, estimate, samples, factor) if samples is not None else (low, high)
+    if not math.isfinite(hard[0]):
+        hard = (low, high)
     v_mid = model.variance(estimate.value / factor[0], model_inputs(claim))
-    implied_n = v_mid * factor[0] ** 2 / error.value ** 2 if error.value > 0 and v_mid else None
+    implied_n = _count_for(v_mid, factor[0], error.value)
     facts = {**details, "floor_low": low, "floor_high": high, "printed_low": error.low,
              "printed_high": error.high, "tolerance": tol, "count_field": count_name}
     ratio = error.value / ((low + high) / 2)
     facts["ratio"] = ratio
-    reproduce = {count_name: round(implied_n)} if implied_n else None
+    reproduce = {count_name: round(implied_n)} if implied_n is not None else None
     base = (f"{what}: printed stat_error {error.text} against {num_range((low, high))} that "
             f"{n.text} {count_name} allow under the {model.name} model")
-    if error.high * (1 + tol) < low:
+    if samples is not None:
+        facts["sampling_floor_low"], facts["sampling_floor_high"] = hard
+    if error.high * (1 + tol) < hard[0]:
+        if samples is not None:
+            ratio = error.value / ((hard[0] + hard[1]) / 2)
+            facts["ratio"] = ratio
+            implied = _count_for(v_mid, factor[0], error.value)
+            yield Finding("fail", f"{what}: printed stat_error {error.text} against {num_range(hard)} that "
+                          f"{samples.text} samples allow under the {model.name} model, even before any "
+                          f"circuit-to-circuit spread: smaller than sampling alone permits ({num(ratio, 2)}x); "
+                          f"it would take about {num(implied, 2)} samples.",
+                          reported=error.value, recomputed=(hard[0] + hard[1]) / 2,
+                          reproduced_by={"samples": round(implied)} if implied is not None else None,
+                          details=facts)
+            return
         yield Finding("fail", f"{base}: smaller than sampling alone permits "
                       f"({num(ratio, 2)}x); it would take about {num(implied_n, 2)} {count_name}.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
                       details=facts)
+    elif error.high * (1 + tol) < low:
+        yield Finding("pass", f"{what}: printed stat_error {error.text} is below the {num_range((low, high))} "
+                      f"that the per-{count_name[:-1]} convention gives for {n.text} {count_name} "
+                      f"({num(ratio, 2)}x) but above the {num_range(hard)} floor of {samples.text} samples: "
+                      f"consistent with many samples per {count_name[:-1]}.",
+                      reported=error.value, recomputed=(low + high) / 2, details=facts)
     elif error.low > WARN_RATIO * high * (1 + tol):
         yield Finding("warn", f"{base}: {num(ratio, 2)}x the sampling floor, which suggests extra "
                       "spread (drift, circuit-to-circuit variation) the claim does not describe.",
@@ -79,13 +120,15 @@ def check(claim: Claim) -> Iterator[Finding]:
     if claim.extrapolation is not None and claim.extrapolation.factor.value > 0:
         # The headline is the measured value times the factor; so is its error.
         factor = claim.extrapolation.factor.bounds
-    yield from _one(claim, claim.estimate, claim.stat_error, count_for_error(claim), factor,
-                    "Headline", {})
+    n = count_for_error(claim)
+    samples = claim.samples if (n is not None and n is not claim.samples) else None
+    yield from _one(claim, claim.estimate, claim.stat_error, n, factor, "Headline", {}, samples)
     for part in claim.parts:
         if part.stat_error is None:
             continue
         n = part.circuits if (metric_of(claim).count_field == "circuits" and part.circuits) else part.samples
         if n is None:
             continue
+        samples = part.samples if n is not part.samples else None
         yield from _one(claim, part.estimate, part.stat_error, n, (1.0, 1.0),
-                        f"Part {part.label}", {"part": part.label})
+                        f"Part {part.label}", {"part": part.label}, samples)

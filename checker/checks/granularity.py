@@ -25,11 +25,14 @@ from ..stats.granularity import granularity
 from .printed_like import like
 
 SEARCH = 0.1  # how far (as a share of N) to look for a count that would make the print possible
+MAX_STEPS = 10_000  # and at most this far: samples of 1e9 made a search of 1e8 counts (minutes)
 
 
 def _nearest_possible(value: Reported, n: int, items: int, proportion: bool) -> int | None:
     """The N closest to n for which the printed value is possible."""
-    for step in range(1, max(2, int(n * SEARCH)) + 1):
+    if proportion and (value.high < 0.0 or value.low > 1.0):
+        return None  # no count of items gives a proportion outside [0, 1]
+    for step in range(1, min(max(2, int(n * SEARCH)), MAX_STEPS) + 1):
         for cand in (n - step, n + step):
             if cand < 1:
                 continue

@@ -206,9 +206,10 @@ def _convert(node, path, name, texts, lines, seen, depth):
     if id(node) in seen:
         # The composer hands an alias back as the very node it names: a node met
         # twice is an alias.  Refusing it also stops exponential "laughs" documents.
+        # That node's own mark is the anchor's line; the alias's line is its field's.
         raise InputFileError(name, "uses a YAML alias (*name)",
                              "write each value out; anchors and aliases are not accepted",
-                             path=dotted(path), line=node.start_mark.line + 1)
+                             path=dotted(path), line=lines.get(path, node.start_mark.line + 1))
     seen.add(id(node))
     if node.tag not in _STANDARD_TAGS:
         raise InputFileError(name, f"uses the YAML tag {node.tag!r}",
@@ -384,6 +385,8 @@ def document_from_mapping(mapping: Mapping[str, Any], name: str = "<mapping>") -
             if isinstance(value, float) and not math.isfinite(value):
                 raise InputFileError(name, f"the number {value} is not finite",
                                      "numbers must be finite", path=dotted(path))
+            # numpy.float64 is a float whose repr is "np.float64(0.25)": use the plain one.
+            value = float(value) if isinstance(value, float) else int(value)
             texts[path] = repr(value)
             return value
         if hasattr(value, "item") and callable(value.item):  # numpy scalars

@@ -169,7 +169,7 @@ class _Builder:
         text = text.strip()
         name = str(key)
         if text.startswith("<"):
-            bound = self._parse(text[1:], path, name, exact=True)
+            bound = self._parse(text[1:], path, name, exact=True, shown=text)
             return Reported(bound.value, 0.0, bound.value, text, dotted(path), self.doc.line_of(path),
                             -math.inf, bound.log_high)
         counting = name in COUNT_FIELDS
@@ -181,11 +181,11 @@ class _Builder:
         return Reported(printed.value, printed.low, printed.high, text, dotted(path),
                         self.doc.line_of(path), printed.log_low, printed.log_high)
 
-    def _parse(self, text, path, name, exact):
+    def _parse(self, text, path, name, exact, shown=None):
         try:
             return parse_printed(text, exact=exact)
         except ValueError:
-            self.fail(path, f"{name} must be a number, got {text!r}",
+            self.fail(path, f"{name} must be a number, got {shown or text!r}",
                       "write digits such as 2.24e-3, 0.0224 or 2.24%")
 
     def build(self) -> Claim:

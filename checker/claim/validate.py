@@ -39,12 +39,33 @@ def validate_document(doc: Document) -> None:
     errors = list(_validator().iter_errors(doc.data))
     if not errors:
         return
-    errors.sort(key=lambda e: (doc.line_of(tuple(e.absolute_path)) or 0, len(e.absolute_path)))
+    errors.sort(key=lambda e: (doc.line_of(_where(e)) or 0, len(e.absolute_path)))
     err = errors[0]
-    path = tuple(err.absolute_path)
+    path = _where(err)
     problem, allowed = describe(err, doc)
     raise ClaimSchemaError(doc.file, problem, allowed, path=dotted(path) or "(top level)",
                            line=doc.line_of(path))
+
+
+def _where(err) -> tuple:
+    """The field an error is about: for an unknown field, the unknown field
+    itself (its own line), not the mapping that holds it."""
+    path = tuple(err.absolute_path)
+    if err.validator == "additionalProperties" and isinstance(err.instance, dict):
+        extra = sorted(set(err.instance) - set(err.schema.get("properties", {})))
+        if extra:
+            return path + (extra[0],)
+    return path
+
+
+def _homes(name: str) -> list[str]:
+    """Where ``name`` is a field: "at the top level", "under significance", ..."""
+    homes = ["at the top level"] if name in claim_schema()["properties"] else []
+    for section, sub in claim_schema()["properties"].items():
+        sub = sub.get("items", sub)
+        if name in sub.get("properties", {}):
+            homes.append(f"under {section}")
+    return homes
 
 
 def _number_advice(text: str) -> str | None:
@@ -88,15 +109,22 @@ def describe(err, doc: Document) -> tuple[str, str]:
         extra = sorted(set(err.instance) - set(allowed_names)) if isinstance(err.instance, dict) else []
         name = extra[0] if extra else "?"
         close = difflib.get_close_matches(name, allowed_names, n=1)
-        hint = f"did you mean {close[0]!r}? " if close else ""
-        where = f"{field}" if path else "a claim"
+        here = f"under {path[0]}" if path else "at the top level"
+        elsewhere = [h for h in _homes(name) if h != here]
+        if close:
+            hint = f"did you mean {close[0]!r}? "
+        elif elsewhere:
+            hint = f"it belongs {' or '.join(elsewhere)}; "
+        else:
+            hint = ""
+        where = dotted(path) if path else "a claim"
         return (f"unknown field {name!r}",
                 f"{hint}allowed fields of {where}: {', '.join(allowed_names)}")
     if validator == "required":
         missing = re.findall(r"'([^']+)' is a required property", err.message)
         name = missing[0] if missing else err.message
         return (f"the required field {name!r} is missing",
-                f"{'a claim' if not path else field} needs {', '.join(schema.get('required', []))}")
+                f"{'a claim' if not path else dotted(path)} needs {', '.join(schema.get('required', []))}")
     if validator == "enum":
         choices = " | ".join(str(c) for c in schema["enum"])
         return (f"{field} is {err.instance!r}", f"allowed: {choices}")
@@ -110,7 +138,7 @@ def describe(err, doc: Document) -> tuple[str, str]:
                 if advice:
                     return advice
             if isinstance(instance, bool):
-                return (f"{field} is {text or instance}, a true/false value", "write a number")
+                return (f"{field} is {text or json.dumps(instance)}, a true/false value", "write a number")
             if counting and isinstance(instance, (int, float)):
                 return (f"{field} must be a whole number of at least 1, got {text or instance}",
                         "counts are whole numbers such as 30 or 2.5e7")

@@ -26,6 +26,7 @@ class MetricModel:
     lowest: float = -math.inf
     highest: float = math.inf
     hard_bounds: bool = False
+    hard_lowest: bool = False  # the lower end alone is impossible to cross (x = D p >= 0)
     # The count N in sqrt(v / N): samples for most metrics, circuits for heavy output.
     count_field: str = "samples"
 

@@ -8,7 +8,7 @@ References
 S. Boixo et al., Nature Physics 14, 595 (2018), arXiv:1608.00263.
 """
 
-from ..stats.porter_thomas import linear_xeb_variance
+from ..stats.porter_thomas import fidelity_from_linear_xeb, linear_xeb_variance
 from .base import MetricModel, ModelInputs
 
 
@@ -19,6 +19,11 @@ class LinearXEB(MetricModel):
     lowest = -1.0  # x = D p >= 0, so mean(x) - 1 >= -1
     highest = 1.0
     hard_bounds = False
+    hard_lowest = True  # mean(D p) - 1 cannot go below -1, whatever the noise
 
     def variance(self, value: float, inputs: ModelInputs) -> float:
-        return linear_xeb_variance(min(max(value, -1.0), 1.0), inputs.dimension)
+        # The printed value is mean(x) - 1, which at finite D is F (D - 1)/(D + 1).
+        # The mixture is a distribution only for F in [0, 1]; a noisy negative
+        # estimate stands for F near 0 (1 + 2F - F^2 would even turn negative).
+        fidelity = fidelity_from_linear_xeb(value, inputs.dimension)
+        return linear_xeb_variance(min(max(fidelity, 0.0), 1.0), inputs.dimension)

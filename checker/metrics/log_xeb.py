@@ -19,4 +19,4 @@ class LogXEB(MetricModel):
     hard_bounds = False
 
     def variance(self, value: float, inputs: ModelInputs) -> float:
-        return log_xeb_variance(min(max(value, -1.0), 1.0))
+        return log_xeb_variance(min(max(value, 0.0), 1.0))  # the mixture needs F in [0, 1]

@@ -29,7 +29,16 @@ def log_sidak(log_p: float, trials: float) -> float:
     if trials * p < 1e-12:
         # 1 - (1 - p)^N = N p (1 - (N - 1) p / 2 + ...); the correction is below 1e-12.
         return math.log(trials) + log_p + math.log1p(-(trials - 1) * p / 2)
-    return math.log(-math.expm1(trials * math.log1p(-p)))
+    log_q = trials * _log1mexp(log_p)  # log (1 - p)^N, even when p rounds to 1
+    return _log1mexp(log_q)
+
+
+def _log1mexp(log_x: float) -> float:
+    """log(1 - x) from log x < 0, accurate at both ends (Maechler, "Accurately computing
+    log(1 - exp(-|a|))", Rmpfr vignette, 2012): expm1 near x = 1, log1p near x = 0."""
+    if log_x > -math.log(2.0):
+        return math.log(-math.expm1(log_x))
+    return math.log1p(-math.exp(log_x))
 
 
 def log_bonferroni(log_p: float, trials: float) -> float:

@@ -49,6 +49,18 @@ def linear_xeb_moments(fidelity: float, dimension: float | None = None) -> tuple
     return mean, max(0.0, second - mean * mean)
 
 
+def fidelity_from_linear_xeb(estimate: float, dimension: float | None = None) -> float:
+    """The mixture weight F behind an expected estimate mean(x) - 1.
+
+    At finite D, E x - 1 = F (D - 1)/(D + 1) (from E_ideal[x] = 2D/(D + 1)), so
+    the printed estimate is not F itself; in the large-D limit it is.
+    """
+    if dimension is None or math.isinf(dimension):
+        return estimate
+    d = float(dimension)
+    return estimate * (d + 1.0) / (d - 1.0)
+
+
 def linear_xeb_variance(fidelity: float, dimension: float | None = None) -> float:
     """Per-sample variance of the linear XEB estimator mean(x) - 1."""
     return linear_xeb_moments(fidelity, dimension)[1]

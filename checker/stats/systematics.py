@@ -43,6 +43,19 @@ def log_p_marginalized(distance: float, stat_error: float, syst_error: float) ->
     """
     if syst_error <= 0.0:
         return float(log_ndtr(-distance / stat_error))
+    if abs(distance) > 1e5 * math.hypot(stat_error, syst_error):
+        # Beyond 1e5 sigma the integrand's squares leave the double range; the
+        # Gaussian identity (tested at 40 and 200 sigma) is exact there.
+        return log_p_quadrature(distance, stat_error, syst_error)
+    if distance < 0.0:
+        # Below the threshold p is near 1 and its log would round to 0: take the
+        # complement, E[Phi_bar((d - delta)/s)] = 1 - E[Phi_bar((-d - delta)/s)]
+        # (the shift's distribution is symmetric).
+        return float(np.log1p(-math.exp(log_p_marginalized(-distance, stat_error, syst_error))))
+    # The p-value does not change when every length is scaled alike: work in units
+    # of the combined error so that errors of 1e-300 or 1e300 stay in range.
+    scale = math.hypot(stat_error, syst_error)
+    distance, stat_error, syst_error = distance / scale, stat_error / scale, syst_error / scale
     # Loaded here: only a claim that states `marginalized` pays for them.
     from scipy import integrate
     from scipy.optimize import minimize_scalar
@@ -58,15 +71,35 @@ def log_p_marginalized(distance: float, stat_error: float, syst_error: float) ->
     guess = distance * syst_error * syst_error / total
 
     width = syst_error * stat_error / math.sqrt(total)
+    # The product of two log-concave factors is unimodal, so a bounded search
+    # between zero shift and the guess (and a margin beyond) finds its peak.
+    margin = 20 * width + 10 * syst_error
     res = minimize_scalar(lambda d: -log_integrand(d),
-                          bounds=(guess - 20 * width - 10 * syst_error, guess + 20 * width + 10 * syst_error),
+                          bounds=(min(guess, 0.0) - margin, max(guess, 0.0) + margin),
                           method="bounded", options={"xatol": width * 1e-6})
-    peak = float(res.x)
+    peak = max((float(res.x), 0.0, guess), key=log_integrand)
     log_peak = log_integrand(peak)
-    span = 40.0 * max(width, 1e-300)
+    # The peak is `width` wide where both factors bend, but when the systematic
+    # dominates the tail factor is a step at `distance` and the mass spreads over
+    # the systematic's own scale on the step's open side, so span that (width <= syst_error).
+    # quad's first Kronrod nodes can step over a feature much narrower than the
+    # range and report a tiny error for a wrong value, so break the range at
+    # geometrically spaced offsets around the peak and the step.
+    span = 40.0 * syst_error
+    low, high = peak - span, peak + span
+    breaks = set()
+    for centre in (peak, distance):
+        offset = max(width, span * 1e-12)  # at most ~20 breaks a side, however lopsided
+        while offset < span:
+            breaks.update(b for b in (centre - offset, centre + offset) if low < b < high)
+            offset *= 4.0
+        if low < centre < high:
+            breaks.add(centre)
+    # log_integrand - log_peak cancels two numbers of size |log_peak|, so the
+    # integrand carries noise of about |log_peak| x 1e-16; ask for no better.
     value, _ = integrate.quad(lambda d: math.exp(log_integrand(d) - log_peak),
-                              peak - span, peak + span, points=[peak], limit=200,
-                              epsabs=0.0, epsrel=1e-10)
+                              low, high, points=sorted(breaks), limit=100 + 2 * len(breaks),
+                              epsabs=0.0, epsrel=max(1e-10, 1e-14 * abs(log_peak)))
     return float(min(0.0, log_peak + math.log(value)))
 
 

@@ -1,17 +1,134 @@
-"""The ``error-floor`` check on parts: each part's printed error against the
-error its own samples allow, labelled with the part."""
+"""``error-floor``: the printed standard error against what sampling alone
+allows, with the edges of the printed digits respected."""
 
 from __future__ import annotations
 
 import math
 import textwrap
 
+import pytest
+from statsmodels.stats.proportion import proportion_confint
+
 from checker.checks import run_checks
 from checker.claim import claim_from_document
 from checker.claim.load import parse_text
 
+BASE = "title: Invented claim\nmetric: {metric}\nestimate: {estimate}\n"
 
-def findings(text: str):
+
+def floor_findings(check_claim, metric, estimate, extra):
+    report = check_claim(BASE.format(metric=metric, estimate=estimate) + extra, only=["error-floor"])
+    return report.findings
+
+
+def test_a_proportion_floor_matches_the_wald_half_width_of_statsmodels(check_claim):
+    (f,) = floor_findings(check_claim, "proportion", "0.912", "stat_error: 0.009\nsamples: 1000\n")
+    # statsmodels' normal-approximation (Wald) interval is p +- 1.96 sqrt(p (1 - p) / n).
+    low, high = proportion_confint(912, 1000, alpha=0.05, method="normal")
+    wald_se = (high - low) / 2 / 1.959963984540054
+    assert f.status == "pass"
+    assert f.details["floor_low"] < wald_se < f.details["floor_high"]
+    assert f.recomputed == pytest.approx(wald_se, rel=1e-3)
+
+
+def test_an_error_smaller_than_sampling_allows(check_claim):
+    (f,) = floor_findings(check_claim, "proportion", "0.912", "stat_error: 0.002\nsamples: 1000\n")
+    assert f.status == "fail"
+    # Pinned: the most important error-floor finding.
+    assert f.message == ("Headline: printed stat_error 0.002 against 0.00894 to 0.00898 that 1000 samples allow "
+                         "under the proportion model: smaller than sampling alone permits (0.22x); it would "
+                         "take about 2e4 samples.")
+    # 0.912 x 0.088 / 0.002^2 = 20064 samples would give that error.
+    assert dict(f.reproduced_by) == {"samples": 20064}
+    assert f.reported == 0.002
+
+
+def test_the_floor_edge_one_digit_at_a_time(check_claim):
+    # Floor low end: "0.912" is [0.9115, 0.9125]; sqrt(0.9125 x 0.0875 / 1000) = 0.0089355.
+    assert math.sqrt(0.9125 * 0.0875 / 1000) == pytest.approx(0.0089355, abs=1e-7)
+    extra = "samples: 1000\ntolerance: 0\nstat_error: {}\n"
+    # "0.0089" reaches 0.00895, above the floor: passes.  "0.0088" reaches only 0.00885: fails.
+    assert floor_findings(check_claim, "proportion", "0.912", extra.format("0.0089"))[0].status == "pass"
+    assert floor_findings(check_claim, "proportion", "0.912", extra.format("0.0088"))[0].status == "fail"
+    # The default tolerance (2%) lets 0.00885 x 1.02 = 0.0090 clear the floor.
+    default = "samples: 1000\nstat_error: 0.0088\n"
+    assert floor_findings(check_claim, "proportion", "0.912", default)[0].status == "pass"
+
+
+def test_far_above_the_floor_is_a_note(check_claim):
+    (f,) = floor_findings(check_claim, "proportion", "0.912", "stat_error: 0.05\nsamples: 1000\n")
+    assert f.status == "warn" and "5.6x the sampling floor" in f.message
+
+
+def test_linear_xeb_floor(check_claim):
+    # Boixo et al. (2018): Var x = 1 + 2F - F^2 per sample; at F = 2.24e-3 and N = 2.5e7 the
+    # floor is sqrt(1.00447) / 5000 = 2.0045e-4.
+    (f,) = floor_findings(check_claim, "linear-xeb", "2.24e-3", "stat_error: 0.20e-3\nsamples: 2.5e7\n")
+    assert f.status == "pass"
+    assert f.details["floor_low"] < math.sqrt(1 + 2 * 2.24e-3 - 2.24e-3 ** 2) / 5000 < f.details["floor_high"]
+    # "2.5e7" samples is [2.45e7, 2.55e7]: the floor's width comes mostly from that.
+    assert f.details["floor_high"] / f.details["floor_low"] == pytest.approx(math.sqrt(2.55 / 2.45), rel=2e-3)
+
+
+def test_heavy_output_with_one_shot_per_circuit(check_claim):
+    # Cross et al. (2019): sigma = sqrt(h (1 - h) / n_circuits); 0.742 and 200 circuits give 0.0309.
+    (f,) = floor_findings(check_claim, "heavy-output", "0.742", "stat_error: 0.031\ncircuits: 200\n")
+    assert f.status == "pass" and f.details["count_field"] == "circuits"
+    (f,) = floor_findings(check_claim, "heavy-output", "0.742", "stat_error: 0.005\ncircuits: 200\n")
+    assert f.status == "fail"
+
+
+def test_heavy_output_with_many_shots_per_circuit(check_claim):
+    # Baldwin et al., arXiv:2110.14808 (2022): at typical shot counts the per-circuit formula
+    # over-states the error, so a smaller printed error is no contradiction so long as it stays
+    # above the binomial floor of all shots (see tests/metrics/test_heavy_output.py).
+    extra = "circuits: 200\nsamples: 200000\nstat_error: {}\n"
+    (f,) = floor_findings(check_claim, "heavy-output", "0.742", extra.format("0.005"))
+    assert f.status == "pass" and "consistent with many samples per circuit" in f.message
+    (f,) = floor_findings(check_claim, "heavy-output", "0.742", extra.format("0.0005"))
+    assert f.status == "fail" and "200000 samples allow" in f.message
+    assert f.details["sampling_floor_low"] == pytest.approx(math.sqrt(0.7425 * 0.2575 / 200000), rel=1e-12)
+    (f,) = floor_findings(check_claim, "heavy-output", "0.742", extra.format("0.031"))
+    assert f.status == "pass"
+
+
+def test_mean_needs_the_per_sample_sd(check_claim):
+    (f,) = floor_findings(check_claim, "mean", "5.2", "stat_error: 0.05\nsamples: 400\n")
+    assert f.status == "skip" and f.message == "Headline: the mean model needs sd."
+    (f,) = floor_findings(check_claim, "mean", "5.2", "stat_error: 0.05\nsamples: 400\nsd: 1.0\n")
+    assert f.status == "pass"
+    assert (f.details["floor_low"], f.details["floor_high"]) == pytest.approx((0.95 / 20, 1.05 / 20))
+
+
+def test_skips_name_what_is_missing(check_claim):
+    (f,) = floor_findings(check_claim, "proportion", "0.9", "stat_error: 0.01\n")
+    assert f.status == "skip" and f.message == "Headline: no floor to compare with; needs samples."
+    assert list(f.details["missing"]) == ["samples"]
+    (f,) = floor_findings(check_claim, "proportion", "0.9", "")
+    assert f.message == "Headline: no floor to compare with; needs stat_error and samples."
+
+
+def test_an_extrapolated_headline_scales_its_floor(check_claim):
+    # Headline 0.5 = measured 0.25 x 2: the floor is 2 sqrt(0.25 x 0.75 / 100) = 0.0866.
+    (f,) = floor_findings(check_claim, "proportion", "0.50", "stat_error: 0.0866\nsamples: 100\n"
+                          "extrapolation: {factor: 2}\n")
+    assert f.status == "pass"
+    assert f.details["floor_low"] < 2 * math.sqrt(0.25 * 0.75 / 100) < f.details["floor_high"]
+
+
+def test_one_finding_per_part_with_its_label(check_claim):
+    found = floor_findings(check_claim, "proportion", "0.5",
+                           "stat_error: 0.05\nsamples: 100\nparts:\n"
+                           "  - {label: a, estimate: 0.5, stat_error: 0.001, samples: 100}\n"
+                           "  - {label: b, estimate: 0.5}\n"
+                           "  - {label: c, estimate: 0.5, stat_error: 0.05}\n")
+    assert [(f.status, f.details.get("part")) for f in found] == [("pass", None), ("fail", "a")]
+    assert found[1].message.startswith("Part a: printed stat_error 0.001")
+
+
+# --- parts: each part's printed error against the error its own samples allow ---------------
+
+def part_findings(text: str):
     claim = claim_from_document(parse_text(textwrap.dedent(text), "claim.yaml", "yaml"))
     return {f.details.get("part", "headline"): f for f in run_checks(claim, ["error-floor"]).findings}
 
@@ -28,7 +145,7 @@ def test_each_part_is_held_against_its_own_samples():
           - {label: b, estimate: 0.800, stat_error: 0.0020, samples: 1000}
           - {label: c, estimate: 0.850}
     """
-    found = findings(text)
+    found = part_findings(text)
     assert found["a"].status == "pass"
     assert found["b"].status == "fail"
     assert found["b"].message.startswith("Part b: printed stat_error 0.0020")
@@ -46,15 +163,16 @@ def test_heavy_output_parts_count_circuits():
         parts:
           - {label: width 5, estimate: 0.760, stat_error: 0.030, circuits: 200}
     """
-    f = findings(text)["width 5"]
+    f = part_findings(text)["width 5"]
     assert f.status == "pass"
     assert math.isclose(f.recomputed, math.sqrt(0.76 * 0.24 / 200), rel_tol=1e-3)
 
 
 def test_a_linear_xeb_estimate_printed_as_zero_does_not_break_the_model():
-    # "0" stands for [-0.5, 0.5]; below F = 1 - sqrt(2) the large-D variance 1 + 2F - F^2 (Boixo et
-    # al., Nature Physics 14, 595 (2018)) would be negative, so it is held at 0 there.
+    # "0" stands for [-0.5, 0.5]; the fidelity mixture (Boixo et al., Nature Physics 14, 595 (2018))
+    # is a distribution only for F in [0, 1], where Var x = 1 + 2F - F^2 runs from 1 to 2, so a
+    # negative estimate is read as F = 0 and the floor is sqrt(1 / 1e6) = 0.001, not 0.
     text = "title: t\nmetric: linear-xeb\nestimate: 0\nstat_error: 0.001\nsamples: 1000000\n"
-    f = findings(text)["headline"]
+    f = part_findings(text)["headline"]
     assert f.status == "pass"
-    assert f.details["floor_low"] == 0.0
+    assert f.details["floor_low"] == pytest.approx(0.001, rel=1e-12)

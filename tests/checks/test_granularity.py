@@ -102,3 +102,17 @@ def test_each_part_gets_its_own_finding():
     fs = findings(f"title: t\nmetric: proportion\nestimate: 0.91\nparts:\n{parts}\n")
     assert [f.details.get("part") for f in fs] == [None, "part 1", "part 2", "part 3"]
     assert fs[1].message.startswith("Part 1: with 4000 items every value")
+
+
+def test_no_nearest_count_for_a_proportion_outside_the_unit_interval():
+    # No count of items gives a proportion of -0.5 (common practice), so no N is suggested; the
+    # search used to walk 0.1 N candidates first (1e8 of them for samples of 1e9, minutes).
+    f = one("title: t\nmetric: proportion\nestimate: -0.5\nsamples: 1000000000\n")
+    assert f.status == "fail" and f.reproduced_by is None
+    assert "the nearest count" not in f.message
+
+
+def test_the_nearest_count_is_still_found_close_by():
+    # 0.30 cannot come from 11 items (3/11 = 0.273, 4/11 = 0.364); 10 items give 3/10.
+    f = one("title: t\nmetric: proportion\nestimate: 0.30\nsamples: 11\n")
+    assert f.status == "fail" and dict(f.reproduced_by) == {"samples": 10}

@@ -1,0 +1,60 @@
+"""The JSON report: exactly the contract's keys, and never NaN or Infinity."""
+
+from __future__ import annotations
+
+import json
+import math
+
+import numpy as np
+import pytest
+
+from checker.render.json import clean, dumps, finding_to_dict, render_json, report_to_dict
+from checker.report import Finding, Report
+
+
+def strict(text):
+    def refuse(token):
+        raise AssertionError(f"JSON holds {token}")
+    return json.loads(text, parse_constant=refuse)
+
+
+def test_contract_keys():
+    f = Finding("fail", "x.", reported=0.0253, recomputed=0.0127, reproduced_by={"sided": "two"},
+                details={"sigma_low": 2.2}).from_check("significance")
+    data = strict(render_json(Report("t", "c.yaml", (f,))))
+    # DESIGN.md, "Output contract".
+    assert set(data) == {"title", "file", "verdict", "findings"}
+    assert data["findings"] == [{"check": "significance", "status": "fail", "message": "x.", "reported": 0.0253,
+                                 "recomputed": 0.0127, "reproduced_by": {"sided": "two"},
+                                 "details": {"sigma_low": 2.2}}]
+    assert data["verdict"] == "inconsistent"
+
+
+def test_non_finite_numbers_become_null():
+    f = Finding("pass", "x.", reported=math.inf, recomputed=math.nan,
+                details={"high": math.inf, "low": -math.inf, "nested": {"x": [1.0, math.nan]},
+                         "numpy": np.float64("nan"), "int": np.int64(3), "set": frozenset({1})})
+    text = render_json(Report("t", "c.yaml", (f,)))
+    d = strict(text)["findings"][0]
+    assert d["reported"] is None and d["recomputed"] is None
+    assert d["details"] == {"high": None, "low": None, "nested": {"x": [1.0, None]}, "numpy": None, "int": 3,
+                            "set": [1]}
+    assert "NaN" not in text and "Infinity" not in text
+
+
+def test_empty_reproduced_by_is_null():
+    assert finding_to_dict(Finding("pass", "x.", reproduced_by={}))["reproduced_by"] is None
+    assert finding_to_dict(Finding("pass", "x."))["reproduced_by"] is None
+
+
+def test_clean_and_dumps():
+    assert clean({1: (1, 2)}) == {"1": [1, 2]}
+    assert clean(object.__class__) == str(object.__class__)
+    assert dumps({"a": math.nan}) == '{\n  "a": null\n}\n'
+    assert dumps({"t": "Fidélité"}).count("Fidélité") == 1  # unicode kept as text
+
+
+def test_report_to_dict_round_trips_through_json():
+    r = Report("t", "c.yaml", (Finding("skip", "needs threshold.").from_check("significance"),))
+    assert strict(render_json(r)) == report_to_dict(r)
+    assert render_json(r).endswith("}\n")

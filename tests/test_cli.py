@@ -1,0 +1,205 @@
+"""The command line through run(argv, stdout, stderr): exit status, the JSON
+contract, and one line on stderr for every unusable input."""
+
+from __future__ import annotations
+
+import io
+import json
+from pathlib import Path
+
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+from jsonschema import Draft202012Validator
+
+from checker.checks import REGISTRY
+from checker.cli import run
+
+ROOT = Path(__file__).resolve().parent.parent
+CLEAN = """\
+title: Invented proportion claim
+metric: proportion
+estimate: 0.912
+stat_error: 0.009
+samples: 1000
+threshold: 0.5
+significance: {sigma: 45.8}
+"""
+FLAWED = CLEAN.replace("stat_error: 0.009", "stat_error: 0.002").replace("sigma: 45.8", "sigma: 206")
+
+
+def cli(*argv):
+    out, err = io.StringIO(), io.StringIO()
+    status = run([str(a) for a in argv], out, err)
+    return status, out.getvalue(), err.getvalue()
+
+
+def refuse_constant(token):
+    raise AssertionError(f"JSON holds {token}")
+
+
+def strict_json(text):
+    return json.loads(text, parse_constant=refuse_constant)
+
+
+def test_exit_status_zero_one(write_claim):
+    status, out, err = cli("check", write_claim(CLEAN))
+    assert (status, err) == (0, "") and "verdict: consistent" in out
+    status, out, err = cli("check", write_claim(FLAWED))
+    assert (status, err) == (1, "") and "verdict: inconsistent" in out
+
+
+def test_nothing_checkable_is_incomplete_and_exit_zero(write_claim):
+    status, out, _ = cli("check", write_claim("title: t\nmetric: mean\nestimate: 1\n"), "--only",
+                         "error-floor,look-elsewhere")
+    assert status == 0 and "verdict: incomplete" in out
+
+
+FINDING_KEYS = {"check", "status", "message", "reported", "recomputed", "reproduced_by", "details"}
+
+
+@pytest.mark.parametrize("text", [CLEAN, FLAWED])
+def test_json_follows_the_contract(write_claim, text):
+    path = write_claim(text)
+    status, out, err = cli("check", path, "--json")
+    assert err == ""
+    report = strict_json(out)
+    # DESIGN.md, "Output contract".
+    assert set(report) == {"title", "file", "verdict", "findings"}
+    assert report["file"] == str(path) and report["title"] == "Invented proportion claim"
+    assert report["verdict"] == ("consistent" if status == 0 else "inconsistent")
+    assert report["findings"]
+    for f in report["findings"]:
+        assert set(f) == FINDING_KEYS
+        assert f["check"] in REGISTRY and f["status"] in {"pass", "warn", "fail", "skip"}
+        assert isinstance(f["message"], str) and "\n" not in f["message"]
+        for key in ("reported", "recomputed"):
+            assert f[key] is None or isinstance(f[key], (int, float))
+        assert f["reproduced_by"] is None or isinstance(f["reproduced_by"], dict)
+        assert isinstance(f["details"], dict)
+
+
+def test_json_never_holds_nan_or_infinity(write_claim):
+    # A printed bound makes the global sigma "at least ...": an infinite upper end inside.
+    text = "title: t\nmetric: mean\nestimate: 1\ntrials: 10\nsignificance: {p_value: '< 1e-6', global_sigma: 4.5}\n"
+    status, out, _ = cli("check", write_claim(text), "--json")
+    report = strict_json(out)
+    (le,) = [f for f in report["findings"] if f["check"] == "look-elsewhere"]
+    assert le["details"]["global_sigma_high"] is None
+    text = "title: t\nmetric: mean\nestimate: 1\nsignificance: {p_value: 3.7e-350, sigma: 40}\nthreshold: 0\n"
+    strict_json(cli("check", write_claim(text), "--json")[1])
+
+
+def test_only_selects_checks(write_claim):
+    status, out, _ = cli("check", write_claim(FLAWED), "--json", "--only", "bounds,significance")
+    assert {f["check"] for f in strict_json(out)["findings"]} == {"bounds", "significance"}
+    status, out, _ = cli("check", write_claim(FLAWED), "--only", "bounds")
+    assert status == 0  # the planted flaws are not bounds findings
+
+
+def test_verdict_only(write_claim):
+    status, out, _ = cli("check", write_claim(FLAWED), "--verdict-only")
+    assert status == 1 and out.count("\n") == 1
+    assert out == "inconsistent (error-floor); 1 flagged, 0 noted, 2 agree\n"
+
+
+def test_schema_prints_a_valid_2020_12_schema():
+    status, out, err = cli("schema")
+    assert (status, err) == (0, "")
+    schema = json.loads(out)
+    Draft202012Validator.check_schema(schema)
+    assert schema == json.loads((ROOT / "schemas" / "claim.schema.json").read_text())
+
+
+def one_error_line(status, out, err, starts=None):
+    assert status == 2 and out == ""
+    assert err.endswith("\n") and err.count("\n") == 1, err
+    assert "Traceback" not in err
+    if starts is not None:
+        assert err.startswith(starts), err
+    return err.rstrip("\n")
+
+
+@pytest.mark.parametrize("text, words", [
+    ("title: t\nmetric: mean\nestimate: 1\nsamples: -5\n", "samples (line 4): samples must be a whole number"),
+    ("title: t\nmetric: mean\nestimate: 1\nsamples: 2.5\n", "samples (line 4)"),
+    ("title: t\nmetric: mean\n", "the required field 'estimate' is missing"),
+    ("title: t\nmetric: mean\nestimate: [1\n", "is not valid YAML"),
+    ("title: t\nmetric: mean\nestimate: 017\n", "octal"),
+    ("title: t\nmetric: mean\nestimate: 1\nestimate: 2\n", "twice"),
+    ("title: t\nmetric: mean\nestimate: 1\nstat_eror: 2\n", "did you mean 'stat_error'"),
+    ("title: t\nmetric: mean\nestimate: !!python/object:os.system 1\n", "tag"),
+    ("", "is empty"),
+    ("- just\n- a list\n", "a list"),
+    (b"\xff\xfe\x00binary", "binary"),
+    (b"title: caf\xe9\n", "not UTF-8"),
+])
+def test_bad_input_is_one_line_and_exit_two(write_claim, text, words):
+    path = write_claim(text)
+    line = one_error_line(*cli("check", path, "--json"), starts=str(path))
+    assert line[len(str(path))] in (":", " ")  # "FILE: field (line N): ..." or "FILE (line N): ..."
+    assert words in line
+
+
+def test_missing_file_and_directory(tmp_path):
+    missing = tmp_path / "nowhere.yaml"
+    assert one_error_line(*cli("check", missing)) == (f"{missing}: no such file; give the path of a YAML or "
+                                                      "JSON claim file")
+    (tmp_path / "folder.yaml").mkdir()
+    assert "is a directory" in one_error_line(*cli("check", tmp_path / "folder.yaml"))
+    assert "is a directory" in one_error_line(*cli("check", tmp_path))
+
+
+@pytest.mark.parametrize("argv, words", [
+    (["check", "x.yaml", "--only", "nope"], "unknown check id nope"),
+    (["check", "x.yaml", "--only", ","], "unknown check id (none)"),
+    (["check"], "the following arguments are required: file"),
+    (["frobnicate"], "invalid choice"),
+    (["check", "x.yaml", "--no-such-option"], "unrecognized arguments"),
+])
+def test_usage_errors_are_one_line_and_exit_two(argv, words):
+    line = one_error_line(*cli(*argv), starts="claimcheck: ")
+    assert words in line
+
+
+def test_help_and_no_command():
+    status, out, err = cli()
+    assert status == 0 and "check" in out and err == ""
+    status, out, _ = cli("--help")
+    assert status == 0 and "usage: claimcheck" in out
+    status, out, _ = cli("check", "--help")
+    assert status == 0 and "--json" in out
+
+
+def test_a_report_over_the_input_is_refused_and_the_input_untouched(write_claim):
+    path = write_claim(CLEAN)
+    before = path.read_bytes()
+    line = one_error_line(*cli("check", path, "--markdown", path))
+    assert "is one of the input files" in line
+    assert path.read_bytes() == before
+
+
+@settings(max_examples=100, deadline=None, suppress_health_check=[HealthCheck.too_slow,
+                                                                   HealthCheck.function_scoped_fixture])
+@given(extra=st.lists(st.sampled_from([
+    "samples: 0", "samples: 3e6", "stat_error: 0.002", "stat_error: -1", "threshold: 0.5", "threshold: 2",
+    "significance: {sigma: 4.2}", "significance: {p_value: '< 0.001'}", "significance: {p_value: 1e-400}",
+    "significance: {sided: two, sigma: 1e300}", "trials: 12", "qubits: 1", "syst_error: 0.01",
+    "significance: {systematics: marginalized, sigma: 40}", "parts: [{estimate: 2}]", "estimate2: 1",
+    "interval: {low: 0.9, high: 0.8}", "tolerance: 0", "sd: 0.3", "circuits: 200", "metric2: x",
+    "significance: {upcrossings: 2, upcrossing_sigma: 0.5, global_sigma: 3}", "extrapolation: {factor: 0.9}",
+    "samples: yes", ": broken", "- list", "  indented: 1",
+]), unique=True, max_size=8),
+    metric=st.sampled_from(["linear-xeb", "log-xeb", "heavy-output", "proportion", "mean"]),
+    json_out=st.booleans())
+def test_any_claim_through_the_command_line(write_claim, extra, metric, json_out):
+    text = f"title: Invented\nmetric: {metric}\nestimate: 0.9\n" + "".join(line + "\n" for line in extra)
+    argv = ["check", write_claim(text)] + (["--json"] if json_out else [])
+    status, out, err = cli(*argv)
+    assert status in (0, 1, 2)
+    if status == 2:
+        one_error_line(status, out, err)
+    else:
+        assert err == ""
+        if json_out:
+            assert strict_json(out)["verdict"] == ("inconsistent" if status == 1 else strict_json(out)["verdict"])

@@ -1,0 +1,65 @@
+"""write_atomic: never over an input, never a partial file."""
+
+from __future__ import annotations
+
+import os
+
+import pytest
+
+from checker.errors import OutputError
+from checker.output import refuse_overwriting_inputs, write_atomic
+
+
+def test_writes_text_and_bytes(tmp_path):
+    write_atomic(tmp_path / "a.md", "notes\n")
+    write_atomic(tmp_path / "b.bin", b"\x00\x01")
+    assert (tmp_path / "a.md").read_text() == "notes\n" and (tmp_path / "b.bin").read_bytes() == b"\x00\x01"
+    write_atomic(tmp_path / "a.md", "replaced\n")
+    assert (tmp_path / "a.md").read_text() == "replaced\n"
+
+
+def test_refuses_an_input_path_in_any_spelling(tmp_path, monkeypatch):
+    claim = tmp_path / "claim.yaml"
+    claim.write_text("title: t\n")
+    monkeypatch.chdir(tmp_path)
+    for target in (claim, "claim.yaml", "./claim.yaml", tmp_path / "sub" / ".." / "claim.yaml"):
+        with pytest.raises(OutputError, match="is one of the input files"):
+            write_atomic(target, "x", inputs=[claim])
+    link = tmp_path / "link.yaml"
+    os.symlink(claim, link)
+    with pytest.raises(OutputError):
+        write_atomic(link, "x", inputs=[claim])
+    assert claim.read_text() == "title: t\n"
+    refuse_overwriting_inputs(tmp_path / "other.md", [claim])  # a new name is fine
+
+
+def test_refuses_a_missing_folder_and_a_directory(tmp_path):
+    with pytest.raises(OutputError, match="folder does not exist"):
+        write_atomic(tmp_path / "nowhere" / "a.md", "x")
+    with pytest.raises(OutputError, match="is a directory"):
+        write_atomic(tmp_path, "x")
+
+
+def test_no_partial_file_on_failure(tmp_path, monkeypatch):
+    target = tmp_path / "report.md"
+    target.write_text("old report\n")
+
+    def broken_replace(src, dst):
+        raise OSError("disk full")
+
+    monkeypatch.setattr(os, "replace", broken_replace)
+    # An OS failure is an unusable output: the documented OutputError, naming the file.
+    with pytest.raises(OutputError, match="disk full"):
+        write_atomic(target, "new report\n")
+    assert target.read_text() == "old report\n"  # the old file is whole
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["report.md"]  # no temporary left behind
+
+
+def test_a_failing_write_leaves_nothing(tmp_path):
+    class Unencodable(str):
+        def encode(self, *args, **kwargs):
+            raise UnicodeEncodeError("utf-8", "x", 0, 1, "refused")
+
+    with pytest.raises(UnicodeEncodeError):
+        write_atomic(tmp_path / "r.md", Unencodable("x"))
+    assert list(tmp_path.iterdir()) == []
