@@ -3,7 +3,6 @@ adds the id, and no claim that loads can make a check raise."""
 
 from __future__ import annotations
 
-import math
 
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st

@@ -14,8 +14,6 @@ from __future__ import annotations
 
 import io
 import json
-import os
-import zipfile
 
 import numpy as np
 import pytest

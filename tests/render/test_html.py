@@ -11,9 +11,6 @@ from __future__ import annotations
 
 import io
 import re
-import shutil
-import subprocess
-from html.parser import HTMLParser
 from pathlib import Path
 
 import numpy as np
@@ -22,42 +19,14 @@ import pytest
 from checker.cli import run
 from checker.render.html import figure_html, html_page, render_html, status_mark, table_html
 from checker.report import Report
+from page_tools import console_lines as _console_lines, needs_chromium, parse_page as _parse
+from page_tools import run_chromium as _chromium, yaml_quote as _yaml_quote
 
-from render_fixtures import BASE_CHECKS, CLAIMS, four_parts_report, load, sidedness_report
+from render_fixtures import BASE_CHECKS, CLAIMS, four_parts_report, sidedness_report
 
 FOUR_PARTS_IDS = ["verdict", "claim", "points", "section-significance", "figure-significance",
                   "section-forest", "figure-forest", "section-budget", "figure-budget", "agrees",
                   "not-checked", "caution", "point-1", "point-2", "point-3"]
-
-
-class _Elements(HTMLParser):
-    """Every start tag with its attributes, and the text outside tags."""
-
-    def __init__(self):
-        super().__init__(convert_charrefs=True)
-        self.tags: list[tuple[str, dict]] = []
-        self.text: list[str] = []
-        self._in_title = False
-        self.title = ""
-
-    def handle_starttag(self, tag, attrs):
-        self.tags.append((tag, dict(attrs)))
-        self._in_title = tag == "title" and not any(t == "svg" for t, _ in self.tags[:-1])
-
-    def handle_endtag(self, tag):
-        if tag == "title":
-            self._in_title = False
-
-    def handle_data(self, data):
-        self.text.append(data)
-        if self._in_title and not self.title:
-            self.title = data
-
-
-def _parse(page: str) -> _Elements:
-    p = _Elements()
-    p.feed(page)
-    return p
 
 
 @pytest.fixture(scope="module")
@@ -132,10 +101,6 @@ def _hostile_claim(tmp_path: Path) -> Path:
         "error_budget:\n  - {name: " + _yaml_quote("<b onmouseover=alert(4)>gates</b>") + ", count: 100, error: 0.01}\n",
         encoding="utf-8")
     return path
-
-
-def _yaml_quote(text: str) -> str:
-    return '"' + text.replace("\\", "\\\\").replace('"', '\\"') + '"'
 
 
 @pytest.fixture()
@@ -225,29 +190,6 @@ def test_cli_writes_html_atomically_and_refuses_the_input(tmp_path):
 
 
 # --- in a real browser -----------------------------------------------------------------
-
-CHROMIUM = shutil.which("chromium") or shutil.which("chromium-browser")
-needs_chromium = pytest.mark.skipif(
-    CHROMIUM is None,
-    reason="Chromium not found (Debian package 'chromium'; .ci/run installs it when run as root): "
-           "browser tests skipped")
-FLAGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-         "--disable-background-networking", "--disable-component-update", "--disable-sync",
-         "--hide-scrollbars"]
-# Chromium logs each console message (errors, CSP refusals, uncaught exceptions)
-# as "...:INFO:CONSOLE:12] ..." or, in older builds, "...:INFO:CONSOLE(12)] ...".
-CONSOLE = re.compile(r":CONSOLE[:(]")
-
-
-def _chromium(page: Path, tmp_path: Path, *args: str) -> subprocess.CompletedProcess:
-    profile = tmp_path / f"profile-{len(list(tmp_path.glob('profile-*')))}"
-    return subprocess.run([CHROMIUM, *FLAGS, f"--user-data-dir={profile}", *args, page.as_uri()],
-                          capture_output=True, text=True, timeout=90)
-
-
-def _console_lines(result: subprocess.CompletedProcess) -> list[str]:
-    return [line for line in result.stderr.splitlines() if CONSOLE.search(line)]
-
 
 @pytest.fixture(scope="module")
 def written(tmp_path_factory, four_parts):

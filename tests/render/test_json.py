@@ -6,7 +6,6 @@ import json
 import math
 
 import numpy as np
-import pytest
 
 from checker.render.json import clean, dumps, finding_to_dict, render_json, report_to_dict
 from checker.report import Finding, Report

@@ -12,9 +12,6 @@ from __future__ import annotations
 
 import io
 import re
-import shutil
-import subprocess
-from html.parser import HTMLParser
 from pathlib import Path
 
 import pytest
@@ -22,6 +19,8 @@ import pytest
 from checker.cli import run
 from checker.raw.analysis import analyse
 from checker.render.raw_html import render_raw_html
+from page_tools import console_lines, needs_chromium, parse_page as _parse
+from page_tools import run_chromium as _chromium, yaml_quote as _yaml_quote
 
 # A circuit label and a claim title that would run or fetch something if they
 # reached the page as markup (no comma: the label sits in a CSV cell).
@@ -30,38 +29,6 @@ HOSTILE_TITLE = '<script>alert("t")</script> & </title><b onmouseover=alert(1)>i
 PAGE_IDS = ["verdict", "data", "goodness-of-fit", "figure-raw-histogram", "bootstrap", "figure-bootstrap",
             "circuits", "findings", "notes", "caution"]
 RAW_ARGS = ["--bootstrap", "300", "--fit-sample", "3000", "--seed", "5"]
-
-
-class _Elements(HTMLParser):
-    def __init__(self):
-        super().__init__(convert_charrefs=True)
-        self.tags: list[tuple[str, dict]] = []
-        self.text: list[str] = []
-        self.title = ""
-        self._in_title = False
-
-    def handle_starttag(self, tag, attrs):
-        self.tags.append((tag, dict(attrs)))
-        self._in_title = tag == "title" and not any(t == "svg" for t, _ in self.tags[:-1])
-
-    def handle_endtag(self, tag):
-        if tag == "title":
-            self._in_title = False
-
-    def handle_data(self, data):
-        self.text.append(data)
-        if self._in_title and not self.title:
-            self.title = data
-
-
-def _parse(page: str) -> _Elements:
-    p = _Elements()
-    p.feed(page)
-    return p
-
-
-def _yaml_quote(text: str) -> str:
-    return '"' + text.replace("\\", "\\\\").replace('"', '\\"') + '"'
 
 
 @pytest.fixture(scope="module")
@@ -216,23 +183,6 @@ def test_no_file_when_rendering_fails(inputs, tmp_path, monkeypatch):
 
 # --- in a real browser -----------------------------------------------------------------
 
-CHROMIUM = shutil.which("chromium") or shutil.which("chromium-browser")
-needs_chromium = pytest.mark.skipif(
-    CHROMIUM is None,
-    reason="Chromium not found (Debian package 'chromium'; .ci/run installs it when run as root): "
-           "browser tests skipped")
-FLAGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-         "--disable-background-networking", "--disable-component-update", "--disable-sync",
-         "--hide-scrollbars"]
-CONSOLE = re.compile(r":CONSOLE[:(]")
-
-
-def _chromium(page: Path, tmp_path: Path, *args: str) -> subprocess.CompletedProcess:
-    profile = tmp_path / f"profile-{len(list(tmp_path.glob('profile-*')))}"
-    return subprocess.run([CHROMIUM, *FLAGS, f"--user-data-dir={profile}", *args, page.as_uri()],
-                          capture_output=True, text=True, timeout=90)
-
-
 @needs_chromium
 @pytest.mark.parametrize("size", ["1366,768", "1920,1080"])  # a laptop, a projector
 def test_browser_loads_cleanly_and_draws(inputs, page, tmp_path, size):
@@ -240,7 +190,7 @@ def test_browser_loads_cleanly_and_draws(inputs, page, tmp_path, size):
     shot = tmp_path / "shot.png"
     result = _chromium(folder / "page.html", tmp_path, "--enable-logging=stderr", "--v=0",
                        f"--window-size={size}", f"--screenshot={shot}")
-    assert [line for line in result.stderr.splitlines() if CONSOLE.search(line)] == []
+    assert console_lines(result) == []
     from matplotlib.image import imread
 
     pixels = imread(shot)

@@ -8,7 +8,6 @@ printed in the NIST/SEMATECH e-Handbook, section 1.3.5.16 (1.36/sqrt(n)); the
 exact value scipy.stats.kstwo.ppf(0.95, 1000) = 0.042777 (REFERENCES.md).
 """
 
-import math
 
 import numpy as np
 import pytest
