@@ -68,3 +68,22 @@ def run_chromium(page: Path, tmp_path: Path, *args: str) -> subprocess.Completed
 
 def console_lines(result: subprocess.CompletedProcess) -> list[str]:
     return [line for line in result.stderr.splitlines() if CONSOLE.search(line)]
+
+
+def assert_loads_cleanly_and_draws(page: Path, tmp_path: Path, size: str) -> None:
+    """Open ``page`` at window ``size`` ("1366,768"): no console message (errors,
+    CSP refusals, uncaught exceptions), and a screenshot that is not blank."""
+    from matplotlib.image import imread
+
+    shot = tmp_path / "shot.png"
+    result = run_chromium(page, tmp_path, "--enable-logging=stderr", "--v=0",
+                          f"--window-size={size}", f"--screenshot={shot}")
+    assert console_lines(result) == []
+    pixels = imread(shot)
+    width, height = (int(v) for v in size.split(","))
+    assert pixels.shape[:2] == (height, width)
+    grey = pixels[..., :3].mean(axis=2)
+    # Not blank: the paper colour covers most of the page, but text, rules,
+    # panels and tables leave a clear spread of darker pixels.
+    assert grey.std() > 0.05
+    assert (grey < 0.5).mean() > 0.005

@@ -19,7 +19,7 @@ import pytest
 from checker.cli import run
 from checker.raw.analysis import analyse
 from checker.render.raw_html import render_raw_html
-from page_tools import console_lines, needs_chromium, parse_page as _parse
+from page_tools import assert_loads_cleanly_and_draws, needs_chromium, parse_page as _parse
 from page_tools import run_chromium as _chromium, yaml_quote as _yaml_quote
 
 # A circuit label and a claim title that would run or fetch something if they
@@ -186,21 +186,7 @@ def test_no_file_when_rendering_fails(inputs, tmp_path, monkeypatch):
 @needs_chromium
 @pytest.mark.parametrize("size", ["1366,768", "1920,1080"])  # a laptop, a projector
 def test_browser_loads_cleanly_and_draws(inputs, page, tmp_path, size):
-    folder = inputs[0]
-    shot = tmp_path / "shot.png"
-    result = _chromium(folder / "page.html", tmp_path, "--enable-logging=stderr", "--v=0",
-                       f"--window-size={size}", f"--screenshot={shot}")
-    assert console_lines(result) == []
-    from matplotlib.image import imread
-
-    pixels = imread(shot)
-    width, height = (int(v) for v in size.split(","))
-    assert pixels.shape[:2] == (height, width)
-    grey = pixels[..., :3].mean(axis=2)
-    # Not blank: paper covers most of the page, but the title, the verdict
-    # panel and the tables leave a clear spread of darker pixels.
-    assert grey.std() > 0.05
-    assert (grey < 0.5).mean() > 0.005
+    assert_loads_cleanly_and_draws(inputs[0] / "page.html", tmp_path, size)
 
 
 @needs_chromium
