@@ -18,16 +18,19 @@ def finite(text: str) -> float:
 
 
 def whole(low: int, what: str):
-    """A parser for whole numbers of at least ``low`` (``2.5e7`` is accepted)."""
+    """A parser for whole numbers of at least ``low`` (``2.5e7`` is accepted);
+    ``what`` names the value in messages (argparse already names the option)."""
+    name = f"{what} " if what else ""
+
     def parse(text: str) -> int:
         try:
             x = float(text)
         except ValueError:
             x = math.nan
         if not (math.isfinite(x) and x == math.floor(x)):
-            raise argparse.ArgumentTypeError(f"{what} must be a whole number, got {text!r}")
+            raise argparse.ArgumentTypeError(f"{name}must be a whole number, got {text!r}")
         if x < low:
-            raise argparse.ArgumentTypeError(f"{what} must be at least {low}, got {text}")
+            raise argparse.ArgumentTypeError(f"{name}must be at least {low}, got {text}")
         return int(x)
     return parse
 

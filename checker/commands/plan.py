@@ -6,7 +6,9 @@ from __future__ import annotations
 import argparse
 import math
 
+from .. import wording
 from .arguments import finite as _finite
+from .arguments import whole as _whole
 
 HELP = ("plan an experiment: the samples (circuits, for heavy-output) needed to reach a significance "
         "with a given power, the smallest detectable value, and a table over a range of counts")
@@ -34,15 +36,7 @@ def _power(text: str) -> float:
     return x
 
 
-def _count(text: str) -> int:
-    try:
-        x = float(text)
-    except ValueError:
-        x = math.nan
-    if not (math.isfinite(x) and x >= 1 and x == math.floor(x)):
-        raise argparse.ArgumentTypeError(f"must be a whole number of at least 1 (such as 200 or 2.5e7), got {text!r}")
-    return int(x)
-
+_count = _whole(1, "")
 
 def add_parser(sub) -> None:
     from ..metrics import METRICS
@@ -153,10 +147,7 @@ def _as_dict(args, plan, count_name, at) -> dict:
 
 
 def _g(x, digits: int = 4) -> str:
-    if x is None or (isinstance(x, float) and not math.isfinite(x)):
-        return "none"
-    return f"{x:.{digits}g}"
-
+    return wording.num(x, digits)
 
 def _as_text(args, plan, count_name, at) -> str:
     syst = f"systematic {_g(plan.syst)} in quadrature" if plan.syst else "no systematic"
