@@ -7,15 +7,74 @@ convention or method under which it would agree.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+import math
+from dataclasses import dataclass
+from dataclasses import field as _field
 from types import MappingProxyType
 from typing import Any, Mapping
 
 STATUSES = ("pass", "warn", "fail", "skip")
+SCALES = ("linear", "log10")
 
 
 def _frozen(mapping: Mapping[str, Any] | None) -> Mapping[str, Any]:
     return MappingProxyType(dict(mapping or {}))
+
+
+@dataclass(frozen=True)
+class Shown:
+    """A printed number as a finding quotes it: the text and the interval its
+    digits stand for, with base-10 logs of the ends for numbers (p-values) that
+    may lie below the double range.
+
+    Attributes
+    ----------
+    text : str
+        As printed ("2.24e-3", "< 0.001", "91.2%").
+    low, high : float
+        The interval the printed digits stand for.
+    log10_low, log10_high : float or None
+        log10 of the ends, exact where the values underflow; None where an end
+        is zero or negative.
+    """
+
+    text: str
+    low: float
+    high: float
+    log10_low: float | None = None
+    log10_high: float | None = None
+
+    @classmethod
+    def of(cls, rep: Any) -> "Shown | None":
+        """From a claim's Reported value (anything with text, low, high and
+        natural-log bounds ``log_low``/``log_high``); None for None."""
+        if rep is None:
+            return None
+        return cls(rep.text, rep.low, rep.high, _log10(getattr(rep, "log_low", math.nan)),
+                   _log10(getattr(rep, "log_high", math.nan)))
+
+
+@dataclass(frozen=True)
+class Span:
+    """A recomputed range: ``low`` to ``high`` on a ``linear`` scale, or on a
+    ``log10`` scale (the ends are then base-10 logs, as for p-values)."""
+
+    low: float
+    high: float
+    scale: str = "linear"
+
+    def __post_init__(self) -> None:
+        if self.scale not in SCALES:
+            raise ValueError(f"scale must be one of {SCALES}, got {self.scale!r}")
+
+
+def _log10(natural_log: float) -> float | None:
+    if natural_log is None or not math.isfinite(natural_log):
+        return None
+    return natural_log / LN10
+
+
+LN10 = math.log(10.0)
 
 
 @dataclass(frozen=True)
@@ -34,9 +93,22 @@ class Finding:
     reproduced_by : mapping or None
         The convention or method under which the printed value agrees.
     details : mapping
-        Everything else worth keeping (ranges, tolerance, the part's label).
+        Everything else worth keeping (the part's label, intermediate values).
     check : str
         The check id; the runner fills it in.
+    field : str or None
+        Dotted claim path of the printed number the finding is about
+        (``combination.stat_error``, ``parts.2.estimate``); None for a finding
+        about the claim as a whole.
+    statement : str
+        A stable id of the statement within its check (``sigma_vs_p``,
+        ``sigma_vs_inputs``, ``required_sigma``).
+    printed : Shown or None
+        The printed number the finding is about, with its interval.
+    recomputed_range : Span or None
+        What the claim's inputs imply for it, over the box of printed precision.
+    tolerance : float or None
+        The relative slack used in the comparison.
     """
 
     status: str
@@ -44,8 +116,13 @@ class Finding:
     reported: float | None = None
     recomputed: float | None = None
     reproduced_by: Mapping[str, Any] | None = None
-    details: Mapping[str, Any] = field(default_factory=dict)
+    details: Mapping[str, Any] = _field(default_factory=dict)
     check: str = ""
+    field: str | None = None
+    statement: str = ""
+    printed: Shown | None = None
+    recomputed_range: Span | None = None
+    tolerance: float | None = None
 
     def __post_init__(self) -> None:
         if self.status not in STATUSES:

@@ -55,7 +55,8 @@ def test_nothing_checkable_is_incomplete_and_exit_zero(write_claim):
     assert status == 0 and "verdict: incomplete" in out
 
 
-FINDING_KEYS = {"check", "status", "message", "reported", "recomputed", "reproduced_by", "details"}
+FINDING_KEYS = {"check", "status", "message", "reported", "recomputed", "reproduced_by", "details",
+                "field", "statement", "printed", "recomputed_range", "tolerance"}
 
 
 @pytest.mark.parametrize("text", [CLEAN, FLAWED])

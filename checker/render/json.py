@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import json
 import math
+from dataclasses import asdict
 from typing import Any
 
 from ..report import Finding, Report
@@ -33,6 +34,11 @@ def finding_to_dict(f: Finding) -> dict:
         "recomputed": clean(f.recomputed),
         "reproduced_by": clean(f.reproduced_by) if f.reproduced_by else None,
         "details": clean(f.details),
+        "field": f.field,
+        "statement": f.statement or None,
+        "printed": clean(asdict(f.printed)) if f.printed is not None else None,
+        "recomputed_range": clean(asdict(f.recomputed_range)) if f.recomputed_range is not None else None,
+        "tolerance": clean(f.tolerance),
     }
 
 

@@ -25,8 +25,24 @@ def test_contract_keys():
     assert set(data) == {"title", "file", "verdict", "findings"}
     assert data["findings"] == [{"check": "significance", "status": "fail", "message": "x.", "reported": 0.0253,
                                  "recomputed": 0.0127, "reproduced_by": {"sided": "two"},
-                                 "details": {"sigma_low": 2.2}}]
+                                 "details": {"sigma_low": 2.2}, "field": None, "statement": None,
+                                 "printed": None, "recomputed_range": None, "tolerance": None}]
     assert data["verdict"] == "inconsistent"
+
+
+def test_self_describing_keys():
+    # The keys a finding carries about itself (README, "JSON output").
+    from checker.report import Shown, Span
+
+    f = Finding("fail", "x.", field="significance.p_value", statement="p_vs_inputs",
+                printed=Shown("1e-400", 5e-401, 1.5e-400, -400.30103, -399.82391),
+                recomputed_range=Span(-402.1, -401.7, "log10"), tolerance=0.02).from_check("significance")
+    d = strict(render_json(Report("t", "c.yaml", (f,))))["findings"][0]
+    assert d["field"] == "significance.p_value" and d["statement"] == "p_vs_inputs"
+    assert d["printed"] == {"text": "1e-400", "low": 0.0, "high": 0.0, "log10_low": -400.30103,
+                            "log10_high": -399.82391}
+    assert d["recomputed_range"] == {"low": -402.1, "high": -401.7, "scale": "log10"}
+    assert d["tolerance"] == 0.02
 
 
 def test_non_finite_numbers_become_null():
