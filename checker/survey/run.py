@@ -295,4 +295,5 @@ def run_batch(source: Any, jobs: int | None = None,
     table = read_source(source)
     records = _records(table, jobs, progress)
     frame, summary, problems = summarize(records, table.name, "row" if isinstance(table, Table) else "file")
+    problems = getattr(table, "notes", ()) + problems  # a folder's second names of one file
     return BatchResult(table.name, frame, summary, problems)
