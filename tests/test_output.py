@@ -55,11 +55,16 @@ def test_no_partial_file_on_failure(tmp_path, monkeypatch):
     assert sorted(p.name for p in tmp_path.iterdir()) == ["report.md"]  # no temporary left behind
 
 
-def test_a_failing_write_leaves_nothing(tmp_path):
-    class Unencodable(str):
-        def encode(self, *args, **kwargs):
-            raise UnicodeEncodeError("utf-8", "x", 0, 1, "refused")
+def test_a_failing_write_leaves_nothing(tmp_path, monkeypatch):
+    # Text can no longer fail to encode (lone surrogates are shown escaped), so the
+    # failure is made inside the write of the temporary file.
+    import checker.output
 
-    with pytest.raises(UnicodeEncodeError):
-        write_atomic(tmp_path / "r.md", Unencodable("x"))
+    def broken_fdopen(fd, *args, **kwargs):
+        os.close(fd)
+        raise RuntimeError("write failed (on purpose, in a test)")
+
+    monkeypatch.setattr(checker.output.os, "fdopen", broken_fdopen)
+    with pytest.raises(RuntimeError):
+        write_atomic(tmp_path / "r.md", "x")
     assert list(tmp_path.iterdir()) == []

@@ -44,14 +44,13 @@ def run(args, stdout, stderr) -> int:
     from dataclasses import replace
 
     from ..errors import DataError
-    from ..output import refuse_overwriting_inputs, write_atomic
+    from ..output import check_targets, write_all_atomic
     from ..raw.analysis import analyse
     from ..render.raw_text import render_raw_text
 
     inputs = [args.data] + ([args.claim] if args.claim else [])
-    for out in (args.html, args.markdown):
-        if out:  # refused before the (possibly long) pass over the data
-            refuse_overwriting_inputs(out, inputs)
+    # Refused before the (possibly long) pass over the data.
+    check_targets({"--html": args.html, "--markdown": args.markdown}, inputs)
     claim = None
     if args.claim:
         from ..claim import read_claim
@@ -84,14 +83,16 @@ def run(args, stdout, stderr) -> int:
         from ..report import Report
 
         report = Report(title=claim.title, file=args.claim, findings=result.findings)
-    if args.html:
+    written = []
+    if args.html is not None:
         from ..render.raw_html import render_raw_html
 
-        write_atomic(args.html, render_raw_html(result, report), inputs)
-    if args.markdown:
+        written.append((args.html, render_raw_html(result, report)))
+    if args.markdown is not None:
         from ..render.raw_markdown import render_raw_markdown
 
-        write_atomic(args.markdown, render_raw_markdown(result, report), inputs)
+        written.append((args.markdown, render_raw_markdown(result, report)))
+    write_all_atomic(written, inputs)
     if args.json:
         from ..render.json import dumps
 
