@@ -13,6 +13,7 @@ import sys
 import warnings
 
 from .errors import ClaimcheckError
+from .visible import SafeStream
 
 # Subcommand name -> module under checker.commands.
 COMMANDS = {
@@ -54,8 +55,10 @@ def build_parser() -> tuple[argparse.ArgumentParser, dict]:
 
 
 def run(argv=None, stdout=None, stderr=None) -> int:
-    stdout = stdout if stdout is not None else sys.stdout
-    stderr = stderr if stderr is not None else sys.stderr
+    # Every character written is shown safely (control characters escaped) and
+    # fits the stream's encoding (ASCII spellings on a non-UTF-8 terminal).
+    stdout = SafeStream(stdout if stdout is not None else sys.stdout)
+    stderr = SafeStream(stderr if stderr is not None else sys.stderr, escape=False)
     argv = list(sys.argv[1:] if argv is None else argv)
     parser, modules = build_parser()
     try:
