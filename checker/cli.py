@@ -9,6 +9,7 @@ from __future__ import annotations
 import argparse
 import contextlib
 import importlib
+import re
 import sys
 import warnings
 
@@ -31,7 +32,14 @@ DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs a
 
 
 class _Parser(argparse.ArgumentParser):
-    """argparse that raises instead of exiting, so run() returns a status."""
+    """argparse that raises instead of exiting, so run() returns a status, and
+    that reads ``--threshold -1e-3`` as a value: Python before 3.13 takes a
+    token starting with "-" for an option unless it is a plain "-1" or "-0.5"
+    (3.13 widened the rule to this one; none of our options looks like a number)."""
+
+    def __init__(self, *args, **kwargs):
+        super().__init__(*args, **kwargs)
+        self._negative_number_matcher = re.compile(r"^-\.?\d")
 
     def error(self, message):
         raise _UsageError(message, self)
@@ -76,8 +84,10 @@ def run(argv=None, stdout=None, stderr=None) -> int:
     try:
         with warnings.catch_warnings():
             # Degenerate inputs (errors of 1e-200, say) make numpy warn about
-            # overflow on the way to a `skip` finding; the finding says it in words.
-            warnings.simplefilter("ignore", RuntimeWarning)
+            # overflow on the way to a `skip` finding, statsmodels about a
+            # singular matrix, matplotlib about an empty axis; the findings say
+            # what matters in words, and stderr carries only claimcheck's lines.
+            warnings.simplefilter("ignore")
             return modules[args.command].run(args, stdout, stderr)
     except ClaimcheckError as exc:
         stderr.write(exc.one_line() + "\n")
