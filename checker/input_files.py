@@ -94,12 +94,20 @@ def open_regular(name: str | os.PathLike, allowed: str) -> BinaryIO:
 
 def read_limited(name: str | os.PathLike, limit: int, allowed: str) -> bytes:
     """At most ``limit + 1`` bytes of a regular file (so the caller can tell
-    "larger than the limit" without reading the rest)."""
+    "larger than the limit" without reading the rest).  Read in pieces: a
+    single read(limit + 1) would ask for the whole limit in memory up front."""
+    pieces, total = [], 0
     with open_regular(name, allowed) as handle:
         try:
-            return handle.read(limit + 1)
+            while total <= limit:
+                piece = handle.read(min(limit + 1 - total, 1 << 24))
+                if not piece:
+                    break
+                pieces.append(piece)
+                total += len(piece)
         except OSError as exc:
             raise InputFileError(str(name), problem_of(exc), allowed) from None
+    return b"".join(pieces)
 
 
 def is_folder(name: str | os.PathLike) -> bool:

@@ -28,10 +28,15 @@ from .visible import visible
 
 
 def _same(a: Path, b: Path) -> bool:
+    """Whether two names are one file (as spelt, through links, or hard links);
+    False when either cannot be looked at (a loop, a dangling link)."""
+    if os.path.realpath(a) == os.path.realpath(b):  # realpath never raises on a loop
+        return True
     try:
-        return a.resolve() == b.resolve() or (a.exists() and b.exists() and os.path.samefile(a, b))
-    except OSError:
+        sa, sb = os.stat(a), os.stat(b)
+    except (OSError, ValueError):
         return False
+    return (sa.st_dev, sa.st_ino) == (sb.st_dev, sb.st_ino)
 
 
 def refuse_overwriting_inputs(target: str | Path, inputs: Iterable[str | Path]) -> None:
