@@ -27,7 +27,10 @@ from ..input_files import open_regular, problem_of, read_limited
 
 TABLE_SUFFIXES = {".csv": ",", ".tsv": "\t", ".parquet": None, ".pq": None}
 CLAIM_SUFFIXES = (".yaml", ".yml", ".json")
-MAX_TABLE_BYTES = 2_000_000_000
+# Limits (README, "Limits"). A batch holds about 1.5 KB per claim and some 25 times a
+# table's bytes at its peak (measured), so these keep it within a few gigabytes.
+MAX_TABLE_BYTES = 250_000_000
+MAX_CLAIMS = 1_000_000
 
 
 class Row(NamedTuple):
@@ -129,6 +132,9 @@ def read_folder(path: Path) -> Folder:
             continue
         seen[key] = name
         files.append(name)
+    if len(files) > MAX_CLAIMS:
+        raise InputFileError(str(path), f"holds {len(files):,} claim files, more than {MAX_CLAIMS:,}",
+                             "split the folder")
     if not files:
         raise InputFileError(str(path), "holds no claim files",
                              "a folder for batch holds .yaml, .yml or .json claim files")
@@ -194,6 +200,9 @@ def parse_delimited(text: str, name: str, delimiter: str = ",") -> Table:
             if not cells or all(not c.strip() for c in cells):
                 continue  # a blank line is not a claim
             number += 1
+            if number > MAX_CLAIMS:
+                raise InputFileError(name, f"holds more than {MAX_CLAIMS:,} claims", "split the table",
+                                     line=line)
             rows.append(Row(number, line, tuple(cells)))
     except csv.Error as exc:
         raise InputFileError(name, f"is not a well-formed table ({exc})",
@@ -206,9 +215,18 @@ def parse_delimited(text: str, name: str, delimiter: str = ",") -> Table:
 def _read_parquet(path: Path) -> Table:
     handle = open_regular(path, "give a CSV or Parquet table, or a folder of claim files")
     try:
+        if os.fstat(handle.fileno()).st_size > MAX_TABLE_BYTES:
+            raise InputFileError(str(path), f"is larger than {MAX_TABLE_BYTES:,} bytes", "split the table")
         import pandas as pd
+        import pyarrow.parquet as pq
 
+        rows = pq.ParquetFile(handle).metadata.num_rows  # counted before anything is decompressed
+        if rows > MAX_CLAIMS:
+            raise InputFileError(str(path), f"holds {rows:,} claims, more than {MAX_CLAIMS:,}", "split the table")
+        handle.seek(0)
         frame = pd.read_parquet(handle)
+    except InputFileError:
+        raise
     except ImportError:
         raise InputFileError(str(path), "is a Parquet file, and reading one needs pyarrow",
                              "pip install pyarrow (or save the table as CSV)") from None
@@ -221,6 +239,8 @@ def _read_parquet(path: Path) -> Table:
 
 
 def table_from_frame(frame, name: str) -> Table:
+    if len(frame) > MAX_CLAIMS:
+        raise InputFileError(name, f"holds {len(frame):,} claims, more than {MAX_CLAIMS:,}", "split the table")
     header = tuple(str(c) for c in frame.columns)
     rows = tuple(Row(i + 1, None, tuple(cell_text(v) for v in values))
                  for i, values in enumerate(frame.itertuples(index=False, name=None)))
