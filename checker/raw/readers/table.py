@@ -69,6 +69,9 @@ class CircuitCodes:
             ids, local = values.ids, np.asarray(values.codes)
             if local.size == 0:
                 return np.empty(0, dtype=np.int64)
+            known = [self.index.get(_key(i)) for i in ids]
+            if None not in known:  # every id seen before (the usual chunk): no order to find
+                return np.asarray(known, dtype=np.int64)[local]
             import pandas as pd  # (the readers that make a CircuitColumn have imported it)
 
             order = pd.unique(local)  # the distinct ids in the order this chunk first shows them
@@ -78,7 +81,7 @@ class CircuitCodes:
             order = np.argsort(first, kind="stable")
         mapping = np.empty(len(ids), dtype=np.int64)
         for j in order:
-            key = ids[j].item() if hasattr(ids[j], "item") else ids[j]
+            key = _key(ids[j])
             code = self.index.get(key)
             if code is None:
                 if isinstance(key, str) and len(key) > MAX_ID_CHARS:
@@ -93,6 +96,11 @@ class CircuitCodes:
                 self.labels.append(key)
             mapping[j] = code
         return mapping[local]
+
+
+def _key(value):
+    """A circuit id as a plain Python value (numpy scalars as their item)."""
+    return value.item() if hasattr(value, "item") else value
 
 
 class Table:
