@@ -23,7 +23,7 @@ _UNSAFE = re.compile("[\x00-\x08\x0b-\x1f\x7f-\x9f\u061c\u200e\u200f\u202a-\u202
 
 # The symbols claimcheck's own wording uses, spelled in ASCII.
 ASCII_SPELLINGS = {
-    "\u00b1": "+-", "\u00d7": "x", "\u00b2": "^2", "\u00b3": "^3", "\u00b7": "*", "\u2212": "-",
+    "\u00b1": "+-", "\u00d7": "x", "\u00b7": "*", "\u2212": "-",
     "\u2013": "-", "\u2014": "--", "\u2018": "'", "\u2019": "'", "\u201c": '"', "\u201d": '"',
     "\u2026": "...", "\u2264": "<=", "\u2265": ">=", "\u2248": "~", "\u2260": "!=", "\u221a": "sqrt",
     "\u03a0": "prod", "\u03a3": "sum", "\u03c3": "sigma", "\u03c7": "chi", "\u03c4": "tau", "\u03c0": "pi",
@@ -31,6 +31,10 @@ ASCII_SPELLINGS = {
     "\u2192": "->", "\u2190": "<-", "\u00a0": " ", "\u2009": " ", "\u202f": " ",
 }
 _SPELLED = re.compile("[" + "".join(ASCII_SPELLINGS) + "]")
+# A run of superscripts is an exponent: "10\u207b\u00b3" is spelt "10^-3", "I\u00b2" "I^2".
+_SUPERSCRIPTS = "\u207b\u2070\u00b9\u00b2\u00b3\u2074\u2075\u2076\u2077\u2078\u2079"
+_SUPERSCRIPT_RUN = re.compile(f"[{_SUPERSCRIPTS}]+")
+_FROM_SUPERSCRIPT = str.maketrans(_SUPERSCRIPTS, "-0123456789")
 
 
 def _escape(match: re.Match) -> str:
@@ -58,6 +62,7 @@ def json_safe(text: str) -> str:
 
 def ascii_spelled(text: str) -> str:
     """The report symbols spelled in ASCII (``+-`` for the plus-minus sign ...)."""
+    text = _SUPERSCRIPT_RUN.sub(lambda m: "^" + m.group().translate(_FROM_SUPERSCRIPT), text)
     return _SPELLED.sub(lambda m: ASCII_SPELLINGS[m.group()], text)
 
 

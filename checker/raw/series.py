@@ -24,6 +24,9 @@ ALLOWED_FILE = "give the path of a CSV file with columns time, estimate[, error]
 ALLOWED = {"time": "a number or an ISO 8601 date-time", "estimate": "a finite number",
            "error": "a standard error above 0"}
 SHOWN_CHARS = 40
+# The fit squares times and values: beyond this size the squares of their spread
+# leave double precision (and the linear algebra gives zeros, not an error).
+MAX_MAGNITUDE = 1e100
 
 
 @dataclass(frozen=True)
@@ -96,6 +99,12 @@ def read_series(name: str) -> Series:
             i = int(np.flatnonzero(bad)[0])
             raise DataError(name, f"{column} {shown(frame[column].iloc[i])} is not usable", ALLOWED[column],
                             path=column, line=i + 2)
+        large = np.abs(arr) > MAX_MAGNITUDE
+        if large.any():
+            i = int(np.flatnonzero(large)[0])
+            raise DataError(name, f"{column} {shown(frame[column].iloc[i])} is too large to fit a line to in "
+                            "double precision", f"values up to {MAX_MAGNITUDE:g} in size; rescale the column "
+                            "(other units)", path=column, line=i + 2)
     return Series(values["time"], values["estimate"], values.get("error"), kind, origin)
 
 

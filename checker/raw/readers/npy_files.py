@@ -36,7 +36,7 @@ def read_npy_header(handle, name: str, member: str = ""):
                         f"({first_line(exc)})", "save the array with numpy.save") from None
     shape = tuple(shape)
     # numpy's header reader accepts any tuple of integers, negative ones included.
-    if not all(isinstance(s, int) and s >= 0 for s in shape):
+    if not all(type(s) is int and s >= 0 for s in shape):  # (True,) is a tuple of ints too
         raise DataError(name, f"{where.strip() + ' ' if where else ''}has the impossible shape {shape} in its header",
                         "save the array with numpy.save")
     return shape, np.dtype(dtype), bool(fortran)

@@ -34,11 +34,12 @@ def open_npz(name: str, chunk_rows: int) -> Table:
                 raise DataError(name, f"has no 'probability' array; its arrays are "
                                 f"{', '.join(sorted(members)) or '(none)'}",
                                 "arrays: probability (required), circuit and heavy (optional)")
-            headers = {}
+            headers, sizes = {}, {}
             for key in [k for k in COLUMNS if k in members]:
                 try:
                     with archive.open(members[key]) as stream:
                         headers[key] = read_npy_header(stream, name, members[key])
+                        sizes[key] = archive.getinfo(members[key]).file_size - stream.tell()
                 except _DAMAGED as exc:
                     raise DataError(name, f"is truncated or damaged ({first_line(exc)})",
                                     "give the complete file") from None
@@ -47,6 +48,9 @@ def open_npz(name: str, chunk_rows: int) -> Table:
     shape, dtype, _ = headers["probability"]
     check_float_dtype(name, dtype, "probability")
     rows = rows_of(name, shape, "probability")
+    if rows > sizes["probability"] // dtype.itemsize:  # the zip directory says how much there is
+        raise DataError(name, f"the probability array's header promises {rows:,} rows but it holds "
+                        f"{sizes['probability'] // dtype.itemsize:,}", "give the complete file", path="probability")
     for key in ("circuit", "heavy"):
         if key in headers:
             s, dt, _ = headers[key]
@@ -64,6 +68,9 @@ def open_npz(name: str, chunk_rows: int) -> Table:
                     raise DataError(name, f"the circuit array holds ids {width:,} characters wide ({dt})",
                                     f"circuit ids of at most {MAX_ID_CHARS:,} characters", path=key)
             n = rows_of(name, s, key)
+            if n > sizes[key] // max(dt.itemsize, 1):
+                raise DataError(name, f"the {key} array's header promises {n:,} rows but it holds "
+                                f"{sizes[key] // max(dt.itemsize, 1):,}", "give the complete file", path=key)
             if n != rows:
                 raise DataError(name, f"the {key} array has {n:,} rows but probability has {rows:,}",
                                 "all arrays have one entry per sample", path=key)
