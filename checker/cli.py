@@ -1,7 +1,8 @@
 """Argument parsing and dispatch only: ``run(argv, stdout, stderr) -> int``.
 
-Exit status: 0 no check failed; 1 a check failed; 2 the input could not be
-used (one line on stderr naming the file, the field and what is wrong).
+Exit status: 0 no check failed; 1 a check failed (and nothing else); 2 the input
+could not be used (one line on stderr naming the file, the field and what is
+wrong); 3 claimcheck itself failed (one line; a bug to report).
 """
 
 from __future__ import annotations
@@ -99,8 +100,26 @@ def run(argv=None, stdout=None, stderr=None) -> int:
         return 0
 
 
+# Exit status of the console script when claimcheck itself fails (a bug, or memory
+# exhausted): never 1, which means only "something was flagged".
+INTERNAL_ERROR = 3
+
+
 def main() -> None:
-    sys.exit(run(sys.argv[1:]))
+    try:
+        status = run(sys.argv[1:])
+    except MemoryError:
+        sys.stderr.write("claimcheck: ran out of memory; the input is beyond what this machine can check "
+                         "(see the limits in the README)\n")
+        status = INTERNAL_ERROR
+    except Exception as exc:  # run() lets a bug surface for tests and the Python API; a shell gets one line
+        from .visible import visible
+
+        sys.stderr.write(" ".join(visible(f"claimcheck: internal error ({type(exc).__name__}: {exc}); this is a "
+                                          "bug in claimcheck, please report it with the input that caused it")
+                                  .split()) + "\n")
+        status = INTERNAL_ERROR
+    sys.exit(status)
 
 
 if __name__ == "__main__":

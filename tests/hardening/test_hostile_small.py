@@ -81,3 +81,22 @@ def test_plan_writes_huge_counts_without_float_noise():
     assert "1e300 samples" in outcome.out
     as_json = claimcheck_many([PLAN + ["--threshold", "1e-3", "--samples", "1e300", "--json"]])[0]
     assert json.loads(as_json.stdout)["at"]["samples"] == 1e300
+
+
+def test_a_failure_of_claimcheck_itself_is_never_exit_1(monkeypatch, capsys):
+    # A traceback used to exit 1, the status for "something was flagged"; a script reading
+    # $? -le 1 as a normal result read a crash as one.  Now: one line and exit 3.
+    import pytest
+
+    import checker.cli
+
+    for error in (RuntimeError("on purpose\x1b[31m, in a test"), MemoryError()):
+        def broken(argv, *args, error=error):
+            raise error
+        monkeypatch.setattr(checker.cli, "run", broken)
+        monkeypatch.setattr("sys.argv", ["claimcheck", "check", "x.yaml"])
+        with pytest.raises(SystemExit) as exit_:
+            checker.cli.main()
+        assert exit_.value.code == checker.cli.INTERNAL_ERROR == 3
+        err = capsys.readouterr().err
+        assert err.count("\n") == 1 and "Traceback" not in err and "\x1b" not in err, err
