@@ -17,16 +17,16 @@ from hypothesis import settings
 from checker.checks import run_checks
 from checker.claim import read_claim
 
-# Hypothesis profiles.  "ci" (the default, loaded by `make test` and .ci/run) draws the
-# same examples on every run, so a test can never hang or fail on a lucky draw; every
-# example has a deadline unless its test sets its own.  "random" is the search for new
-# failures, run locally: `make search` (or pytest --hypothesis-profile=random).
+# Property tests draw the same examples on every run unless asked otherwise (profile
+# "fixed", loaded by `make test` and .ci/run), so a run can never hang or fail on a lucky
+# draw; every example has a deadline unless its test sets its own.  "explore" searches
+# afresh, for local use: `make search`, or CLAIMCHECK_HYPOTHESIS=explore (DEVELOPERS.md).
 # The hard limit on any one test is pytest-timeout's (pyproject.toml).
-settings.register_profile("ci", derandomize=True, deadline=datetime.timedelta(seconds=10),
-                          print_blob=True)
-settings.register_profile("random", derandomize=False, deadline=datetime.timedelta(seconds=10),
-                          print_blob=True)
-settings.load_profile(os.environ.get("CLAIMCHECK_HYPOTHESIS_PROFILE", "ci"))
+settings.register_profile("fixed", derandomize=True, database=None, print_blob=True,
+                          deadline=datetime.timedelta(seconds=10))
+settings.register_profile("explore", derandomize=False, print_blob=True,
+                          deadline=datetime.timedelta(seconds=10))
+settings.load_profile(os.environ.get("CLAIMCHECK_HYPOTHESIS", "fixed"))
 
 
 @pytest.fixture
