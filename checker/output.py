@@ -70,6 +70,9 @@ def check_target(target: str | Path, inputs: Iterable[str | Path] = ()) -> None:
         raise OutputError(name, "is not a usable path (it holds a NUL byte)", "give a file name for the report") from None
     if not stat.S_ISDIR(folder_mode):
         raise OutputError(name, "its folder does not exist", "create the folder first")
+    if not os.access(folder, os.W_OK | os.X_OK):  # said before the work, not after it
+        raise OutputError(name, "cannot be written (its folder does not allow it)",
+                          "check the folder's permissions")
     try:
         mode = os.stat(target).st_mode  # links followed: a link to /dev/null is /dev/null
     except FileNotFoundError:
