@@ -15,12 +15,10 @@ import io
 import json
 import os
 import shutil
-from pathlib import Path
 
 import pytest
 
-from limited import (ROOT, assert_answered, assert_no_raw_controls, assert_refused, claimcheck,
-                     claimcheck_many)
+from limited import ROOT, assert_answered, assert_no_raw_controls, claimcheck, claimcheck_many
 
 EXAMPLES = ROOT / "claims_examples"
 # Each a string a hostile title (or label, or id) may hold.
