@@ -1,0 +1,1 @@
+"""Drafting a claim file from the paper's own words (``claimcheck draft``)."""
