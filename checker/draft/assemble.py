@@ -12,6 +12,7 @@ counting experiment when the schema insists on an estimate.
 
 from __future__ import annotations
 
+import math
 import re
 from dataclasses import dataclass, field, replace
 from decimal import Decimal
@@ -153,11 +154,19 @@ class Decision:
 
 
 def _is_count(n: Number | None) -> bool:
-    return n is not None and n.value >= 1 and n.value == int(n.value) and not n.percent
+    return (n is not None and math.isfinite(n.value) and n.value >= 1 and n.value == int(n.value)
+            and not n.percent)
 
 
-def classify(sentence: str, mention: Mention, left_from: int, right_to: int) -> Decision:
+def sentence_cues(sentence: str) -> dict:
+    """The first match of each sentence-wide rule, found once per sentence."""
+    return {rule.name: rule.regex.search(sentence) for rule in R.SENTENCE}
+
+
+def classify(sentence: str, mention: Mention, left_from: int, right_to: int,
+             cues: dict | None = None) -> Decision:
     """The rule that decides a mention's role (None: the default for its kind)."""
+    cues = sentence_cues(sentence) if cues is None else cues
     left = sentence[max(left_from, mention.start - 90):mention.start]
     left_offset = max(left_from, mention.start - 90)
     right = sentence[mention.end:min(right_to, mention.end + 80)]
@@ -188,10 +197,10 @@ def classify(sentence: str, mention: Mention, left_from: int, right_to: int) -> 
         if best is None or key > best[0]:
             best = (key, rule, left_offset + last.start(), mention.end)
     for order, rule in enumerate(R.SENTENCE):
-        if mention.kind not in rule.kinds:
+        if mention.kind not in rule.kinds or (rule.whole and not whole and mention.kind == R.VALUE):
             continue
-        m = rule.regex.search(sentence, 0, mention.start)
-        if m:
+        m = cues.get(rule.name)
+        if m and m.end() <= mention.start:
             key = (rule.strength, 0, -order - 200)
             if best is None or key > best[0]:
                 best = (key, rule, m.start(), mention.end)
@@ -289,6 +298,13 @@ class _Builder:
                 self.measurement(m, base, error, quote, rule, heading)
             else:
                 self.add(base, v, quote, rule, heading=heading)
+            label = R.BASELINE_LABEL.search(quote) if role == "baseline" else None
+            if label:
+                self.add(("baseline", "label"), " ".join(label.group().lower().split()), quote, rule,
+                         heading=heading)
+        elif role == "operand":
+            self.unplaced.append((v.text, quote, "printed after a multiplication sign (a power of ten "
+                                  "whose superscript was lost in copying?)"))
         elif role == "threshold":
             if m.kind == R.RATIO:
                 self.add(("threshold",), _fraction_text(m, exact=True), quote, rule,
@@ -515,7 +531,8 @@ def _text_quote(text: str, start: int, end: int) -> str:
 def _budget(b: _Builder, sentence: Sentence) -> list[tuple[int, int]]:
     spans = []
     i = len([f for f in b.fields if f.path[0] == "error_budget" and f.path[2] == "name"])
-    for m in R.BUDGET_ITEM.finditer(sentence.text):
+    word = re.search(r"\bbudget\b", sentence.text, re.I)
+    for m in R.BUDGET_ITEM.finditer(sentence.text, word.end() if word else 0):
         name = m.group("name").strip()
         count = number(m.group("count"))
         error = _plain_number(m.group("error"))
@@ -571,16 +588,24 @@ def draft_text(text: str, name: str, require_estimate: bool = True) -> Draft:
         count += len(mentions)
         mentions = [m for m in mentions if not any(s <= m.start < e for s, e in skip)]
         any_number = any_number or bool(mentions)
-        numeric = [m for m in mentions if not m.word]
+        # Each number's words run back to the previous number and on to the
+        # next (numbers written as words do not bound them).
+        bounds = []
+        last_end = 0
+        for m in mentions:
+            bounds.append(last_end)
+            if not m.word:
+                last_end = m.end
+        next_start = len(sentence.text)
+        nexts = [0] * len(mentions)
+        for i in range(len(mentions) - 1, -1, -1):
+            nexts[i] = next_start
+            if not mentions[i].word:
+                next_start = mentions[i].start
+        cues = sentence_cues(sentence.text)
         for i, m in enumerate(mentions):
-            if m.word:
-                prev_end = max([x.end for x in numeric if x.end <= m.start] or [0])
-                next_start = min([x.start for x in numeric if x.start >= m.end] or [len(sentence.text)])
-            else:
-                j = numeric.index(m)
-                prev_end = numeric[j - 1].end if j else 0
-                next_start = numeric[j + 1].start if j + 1 < len(numeric) else len(sentence.text)
-            decision = classify(sentence.text, m, prev_end, next_start)
+            prev_end, next_start = bounds[i], nexts[i]
+            decision = classify(sentence.text, m, prev_end, next_start, cues)
             quote = clip(sentence.text, decision.cue_start, decision.cue_end)
             rule = decision.rule
             if rule is not None:
@@ -635,7 +660,7 @@ def _tables(b: _Builder, tables: list[Table]) -> Table | None:
                              f"a claim holds at most {MAX_PARTS:,} parts; use --table for one claim per row")
         i = 0
         for row, line in zip(table.rows, table.lines):
-            quote = printable(line, QUOTE_LIMIT)
+            quote = printable(normalize(line), QUOTE_LIMIT)
             cells = dict()
             for col, cell in zip(columns, row):
                 if col is None or col.field not in ("estimate", "stat_error", "samples", "circuits"):
@@ -659,6 +684,8 @@ def _tables(b: _Builder, tables: list[Table]) -> Table | None:
                 b.add(("combination", "estimate"), cells["estimate"], quote, "table-combined-row")
                 if "stat_error" in cells:
                     b.add(("combination", "stat_error"), cells["stat_error"], quote, "table-combined-row")
+                if "samples" in cells:
+                    b.add(("samples",), cells["samples"], quote, "table-combined-row")
                 b.trace.append("table-combined-row")
                 continue
             if text_label:
@@ -678,7 +705,7 @@ def _budget_table(b: _Builder, table: Table, label: int, columns: list[Column | 
     # a spread column its uncertainty.
     roles = {"count": "count", "stat_error": "error", "estimate": "error", "sd": "error_sd"}
     for row, line in zip(table.rows, table.lines):
-        quote = printable(line, QUOTE_LIMIT)
+        quote = printable(normalize(line), QUOTE_LIMIT)
         item = {}
         for col, cell in zip(columns, row):
             if col is None or col.field not in roles:
@@ -896,12 +923,17 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
     elif results is not None and results.caption:
         title, title_quote, title_rule = printable(normalize(results.caption), 160), "", "caption"
         title = re.sub(r"^(?:table|tab\.)\s*[A-Z]?\d*[A-Za-z]?\s*[:.]\s*", "", title, flags=re.I) or title
+    elif results is not None and not any(f.path == ("estimate",) and not f.rule.startswith("table")
+                                         for f in final):
+        title = printable("Results table: " + ", ".join(normalize(h) for h in results.header if h.strip()), 160)
+        title_quote, title_rule = "", "table-heading"
+        title_guess = "the text has no heading or caption: name the claim"
     else:
         estimate = next((f for f in final if f.path == ("estimate",)), None)
         source = estimate.quote if estimate else ""
         first = next((s.text for s in sentences if estimate and estimate.value.text.split("e")[0].rstrip("%").lstrip("-")
                       in s.text), sentences[0].text if sentences else source)
-        title = printable(first, 100).rstrip(".") or f"Claim drafted from {name}"
+        title = printable(first, 100).rstrip(".") or f"Claim drafted from {b.name}"
         title_quote, title_rule = "", "title-sentence"
         title_guess = "the sentence that prints the estimate: shorten it to what the claim is about"
     final.insert(0, Field(("title",), title, title_quote, title_rule, title_guess, False, -1))
@@ -924,8 +956,6 @@ def _belongs(f: Field, have: set, metric: str) -> bool:
     head = f.path[0]
     if head == "significance" and f.path[1] in ("systematics", "error_at"):
         return any(p[0] == "significance" and p[1] in ("sigma", "p_value") for p in have) or ("threshold",) in have
-    if head == "combination" and f.path[1] == "method":
-        return any(p[0] == "parts" for p in have) or ("combination", "estimate") in have
     if head == "extrapolation" and f.path[1] != "factor":
         return ("extrapolation", "factor") in have
     if head == "comparison" and f.path[1] == "paired":

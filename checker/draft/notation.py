@@ -74,6 +74,7 @@ class Mention:
     word: bool = False  # written as a word ("twelve")
 
 
+MAX_NUMBER_CHARS = 200
 _MANTISSA = r"(?:\d{1,3}(?:,\d{3})+(?![\d,])|\d+)(?:\.\d+)?|\.\d+"
 _START = re.compile(r"(?<![\w.^_])(?<![A-Za-z]-)(?=\.?\d)")
 _MANT = re.compile(_MANTISSA)
@@ -455,6 +456,10 @@ def find_mentions(text: str, limit: int | None = None) -> list[Mention]:
         if mention is None:
             mention = _parse_at(text, pos)
         if mention is None:
+            continue
+        if mention.end - mention.start > MAX_NUMBER_CHARS:
+            # A run of hundreds of digits is no printed measurement.
+            consumed = mention.end
             continue
         relation = _relation_before(text, mention.start)
         if relation:

@@ -110,7 +110,8 @@ def _noun(nouns: str) -> str:
 SAMPLE_NOUNS = (r"samples?|shots?|bit-?strings?|measurements?|repetitions?|runs?|seeds?|test\s+items|"
                 r"items|questions|problems|examples|images|clips|utterances|episodes|prompts|tasks|"
                 r"sequences|realizations|realisations|draws|evaluations|graphs|rounds|cases|"
-                r"test\s+cases|sentences|documents|patients|subjects|participants")
+                r"test\s+cases|sentences|documents|patients|subjects|participants|games|matches|ratings|responses|"
+                r"answers|trials\s+of\s+the\s+task")
 CIRCUIT_NOUNS = r"circuits?|circuit\s+instances"
 INSTANCE_NOUNS = r"instances|problem\s+instances|graph\s+instances"
 TRIAL_NOUNS = (r"configurations?|settings?|variants|attempts|hyper-?parameter\s+(?:settings|sets|configurations)|"
@@ -171,6 +172,8 @@ LEFT = (
          r"appendix|chapter|step|lemma|theorem|algorithm|line|lines|page|pages|pp|version|arxiv)\.?\s*[(:]?\s*$"
          r"|\[\s*(?:\d+\s*[,–-]\s*)*$", REFERENCE,
          "As Fig. 3 shows, the fidelity is 0.0018 ± 0.0002.", reach=0),
+    Rule("times-operand", "operand", _kinds(VALUE), "left", r"×\s*$", REFERENCE + 1,
+         "A PDF copy prints 2.5 × 107 samples and a fidelity of 0.0185 ± 0.0020.", reach=0),
     Rule("p-value", "p_value", _kinds(VALUE), "left",
          r"(?<![\w.])p(?:[- ]?values?)?\s*(?:of|is|was)?\s*(?:=|<|>|≤|≈)?\s*$", REFERENCE,
          "The excess is significant (p = 1.4 × 10^-15).", reach=0),
@@ -187,8 +190,6 @@ LEFT = (
     Rule("same-items", "shared_samples", NUMBERS, "left", r"\bsame\s*$", UNIT + 1,
          "We reach 91.3% against the previous best's 89.0% on the same 1,200 test items.",
          reach=0, whole=True),
-    Rule("discordant", "discordant", _kinds(VALUE, PAIR), "left", r"\bdiscordant\b", STRONG,
-         "The discordant counts are 58 and 30.", whole=True),
     Rule("observed", "observed", NUMBERS, "left", r"\b(?:observ(?:e|es|ed|ing)|n_?obs\s*=)\s*$", STRONG,
          "Over an expected background of 30.2 ± 3.1 we observe 47.", reach=0, whole=True),
     Rule("sigma-required-before", "required_sigma", _kinds(SIGMA), "left",
@@ -249,6 +250,8 @@ LEFT = (
 )
 
 SENTENCE = (
+    Rule("discordant", "discordant", _kinds(VALUE, PAIR), "sentence", r"\bdiscordant\b", STRONG,
+         "The discordant counts are 58 and 30.", whole=True),
     Rule("combined-sentence", "combination", _kinds(MEASUREMENT), "sentence",
          r"\b(?:combined|combination|weighted\s+(?:mean|average)|pooled)\b", SENTENCE_WIDE,
          "Combined with inverse-variance weights, the twelve circuits give 0.00178 ± 0.00020."),
@@ -332,9 +335,14 @@ TEXT = (
 # An error-budget item inside a sentence that speaks of a budget:
 # "150 two-qubit gates with error 0.005 ± 0.001".
 BUDGET_ITEM = re.compile(
-    r"(?<![\w.])(?P<count>\d{1,3}(?:,\d{3})+|\d+)\s+(?P<name>[a-z][a-z0-9 -]{0,40}?)\s+"
+    r"(?<![\w.-])(?P<count>\d{1,3}(?:,\d{3})+|\d+)\s+(?P<name>[a-z][a-z0-9-]*(?:\s+[a-z][a-z0-9-]*){0,3}?)\s+"
     r"(?:with|at|of)\s+(?:an?\s+)?(?:(?:average|mean)\s+)?(?:(?:error(?:\s+rate)?|infidelity)\s+(?:of\s+)?)?"
     r"(?:each\s+)?(?P<error>\d*\.?\d+(?:[eE][-+]?\d+)?%?)(?:\s*±\s*(?P<sd>\d*\.?\d+(?:[eE][-+]?\d+)?%?))?", re.I)
+
+# The words of a baseline cue that name it (baseline.label).
+BASELINE_LABEL = re.compile(
+    r"\b(?:previous|prior|earlier)\s+(?:best|method|model|work|record|result)|\bbest\s+previous\b"
+    r"|\bstate[- ]of[- ]the[- ]art\b|\bbaseline", re.I)
 
 # Which metric words name which metric; specific metrics win over the
 # generic proportion and mean, which go by the first word in the text.
@@ -359,7 +367,8 @@ COLUMNS = (
     ("stat_error", r"^(?:±|\+/-|stat\.?|statistical|errors?|err\.?|uncertainty|unc\.?|s\.?e\.?m?\.?|std\.?\s*err(?:or)?"
                    r"|σ_?stat|σ|δ|standard\s+error)\b|\bstat(?:istical)?\s+(?:error|unc)|\berror\b(?!\s+rate)"),
     ("sd", r"^(?:sd|s\.d\.|std\.?\s*dev\.?|standard\s+deviation|spread)\b"),
-    ("samples", r"\bsamples\b|\bshots\b|^n$|^n_\w+|\bitems\b|\bbitstrings\b|\bmeasurements\b|\brepetitions\b|\bseeds\b|\bruns\b|\bsize\b"),
+    ("samples", r"\bsamples\b|\bshots\b|^n$|^n_\w+|\bitems\b|\bbitstrings\b|\bmeasurements\b|\brepetitions\b"
+                r"|\bseeds\b|\bruns\b|\bsize\b|\brounds\b|\bepisodes\b|\bimages\b|\bclips\b|\bgames\b"),
     ("circuits", r"\bcircuits\b|\binstances\b"),
     ("count", r"^(?:count|number|#|n_?gates|gates)\b"),
     ("significance.sigma", r"\bsignificance\b|^z$|^n_?σ$|\bsigmas?\b|\bσ\s*\(?sig"),

@@ -50,7 +50,7 @@ _ROW_SPLIT = re.compile(r"\\\\(?:\s*\[[^\]]*\])?|\\tabularnewline")
 _CAPTION = re.compile(r"\\caption\s*(?:\[[^\]]*\])?\s*\{((?:[^{}]|\{(?:[^{}]|\{[^{}]*\})*\})*)\}")
 _TABLE_ENV = re.compile(r"\\(?:begin|end)\s*\{table\*?\}")
 _MD_LINE = re.compile(r"^\s*\|?(?:[^|\n]*\|)+[^|\n]*$")
-_MD_SEPARATOR = re.compile(r"^\s*\|?\s*:?-{2,}:?\s*(?:\|\s*:?-{2,}:?\s*)*\|?\s*$")
+_MD_SEPARATOR = re.compile(r"^\s*\|?\s*:?-+:?\s*(?:\|\s*:?-+:?\s*)*\|?\s*$")
 _CAPTION_LINE = re.compile(r"^\s*(?:\*\*|__)?(?:table|tab\.)\s*[A-Z]?\d*[A-Za-z]?\s*[:.]", re.I)
 _NUMERIC_CELL = re.compile(r"\d")
 
@@ -146,11 +146,8 @@ def _line_tables(text: str) -> list[tuple[int, int, Table]]:
                 body.append(_md_cells(lines[j]))
                 j += 1
             if body:
-                start = i
-                caption = ""
-                if i >= 1 and _CAPTION_LINE.match(lines[i - 1]):
-                    caption, start = lines[i - 1], i - 1
-                elif j < len(lines) and _CAPTION_LINE.match(lines[j]):
+                start, caption = _caption_before(lines, i)
+                if not caption and j < len(lines) and _CAPTION_LINE.match(lines[j]):
                     caption = lines[j]
                     j += 1
                 found.append((offsets[start], offsets[j - 1] + len(lines[j - 1]),
@@ -162,16 +159,26 @@ def _line_tables(text: str) -> list[tuple[int, int, Table]]:
             block = _delimited_block(lines, i, delimiter)
             if block is not None:
                 j, header, body = block
-                start = i
-                caption = ""
-                if i >= 1 and _CAPTION_LINE.match(lines[i - 1]):
-                    caption, start = lines[i - 1], i - 1
+                start, caption = _caption_before(lines, i)
                 found.append((offsets[start], offsets[j - 1] + len(lines[j - 1]),
                               Table(header, tuple(body), caption, "delimited", tuple(lines[i + 1:j]))))
                 i = j
                 continue
         i += 1
     return found
+
+
+def _caption_before(lines, i) -> tuple[int, str]:
+    """A "Table N: ..." line just above a table (a blank line between allowed)."""
+    for back in (1, 2):
+        if i - back < 0:
+            break
+        line = lines[i - back]
+        if _CAPTION_LINE.match(line):
+            return i - back, line
+        if line.strip():
+            break
+    return i, ""
 
 
 def _split(line: str, delimiter: str) -> list[str]:
