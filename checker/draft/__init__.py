@@ -11,7 +11,8 @@ A deterministic reader, no network and no trained model:
 - :mod:`.table_rows` drafts one batch row per table row (``--table``).
 """
 
-from .assemble import Draft, DraftError, Field, draft_text
+from .assemble import draft_text
+from .model import Draft, DraftError, Field
 from .loadable import make_loadable
 from .writer import render_yaml
 

@@ -12,201 +12,24 @@ counting experiment when the schema insists on an estimate.
 
 from __future__ import annotations
 
-import math
 import re
-from dataclasses import dataclass, field, replace
+from dataclasses import replace
 from decimal import Decimal
 from fractions import Fraction
 from typing import Any
 
-from ..errors import InputFileError
 from . import rules as R
+from .classify import classify, is_count, sentence_cues
+from .columns import Column, cell_numbers, read_columns
+from .model import Draft, DraftError, Field
+from .needs import missing as still_needed
 from .normalize import normalize, printable, strip_control
 from .notation import Mention, Number, find_mentions, number
+from .sentences import QUOTE_LIMIT, Sentence, clip, sentence_of, split_sentences, text_quote
 from .tables import Table, extract_tables
 
 MAX_MENTIONS = 20_000
 MAX_PARTS = 1000
-QUOTE_LIMIT = 110
-
-
-@dataclass(frozen=True)
-class Field:
-    """One drafted field.
-
-    Attributes
-    ----------
-    path : tuple
-        ``("estimate",)``, ``("significance", "sigma")``, ``("parts", 2, "samples")``.
-    value : Number, str, bool or tuple of Number
-    quote : str
-        The words it came from (normalised text).
-    rule : str
-        The rule that placed it (a name in :mod:`.rules`, or ``default-...``,
-        ``table``, ``budget``).
-    guess : str
-        Why this is a guess, when it is one.
-    heading : bool
-        Read from a heading: body text wins over it.
-    """
-
-    path: tuple
-    value: Any
-    quote: str
-    rule: str
-    guess: str = ""
-    heading: bool = False
-    order: int = 0
-
-
-@dataclass(frozen=True)
-class Draft:
-    """A claim drafted from text, ready to be written as YAML."""
-
-    name: str
-    fields: tuple
-    also: tuple = ()       # Fields printed again for a path already placed
-    unplaced: tuple = ()   # (number text, quote, reason)
-    missing: tuple = ()    # (path, why)
-    notes: tuple = ()      # lines for the header comment
-    dropped: tuple = ()    # (Field, why the loader refused it)
-    trace: tuple = ()      # names of the rules that fired
-
-    def get(self, path: tuple) -> Field | None:
-        for f in self.fields:
-            if f.path == tuple(path):
-                return f
-        return None
-
-    def has(self, *path) -> bool:
-        return self.get(path) is not None
-
-    def under(self, prefix: tuple) -> list[Field]:
-        n = len(prefix)
-        return [f for f in self.fields if f.path[:n] == tuple(prefix)]
-
-
-class DraftError(InputFileError):
-    """The text cannot give a draft (no number, no estimate, too large)."""
-
-
-# --- sentences ---------------------------------------------------------------
-
-_ABBREVIATION = re.compile(
-    r"(?:\b(?:e\.g|i\.e|etc|Fig|Figs|Eq|Eqs|Eqn|Ref|Refs|Sec|Secs|Tab|No|approx|vs|cf|al|resp|Suppl|Supp|"
-    r"ca|Dr|Prof|Vol|Ch|s\.e\.m|s\.d|s\.e|Tbl)|\b[A-Z])\.$")
-_SENTENCE_END = re.compile(r"(?<=[.!?;])\s+(?=[A-Z0-9(\[\"'#*-])|\n+")
-_HEADING = re.compile(r"^(?:#{1,6}\s+|title\s*:\s*)(.+)$", re.I)
-
-
-@dataclass(frozen=True)
-class Sentence:
-    text: str
-    heading: bool
-    index: int
-
-
-def split_sentences(text: str) -> list[Sentence]:
-    """Sentences of a normalised text: at ``. `` before a capital or a digit
-    (not after an abbreviation such as ``Fig.``), at a semicolon, and at a
-    line break; a Markdown heading or ``Title:`` line is a sentence marked as
-    a heading."""
-    out: list[Sentence] = []
-    start = 0
-    pieces = []
-    for m in _SENTENCE_END.finditer(text):
-        piece = text[start:m.start()]
-        if "\n" not in m.group() and _ABBREVIATION.search(piece):
-            continue
-        pieces.append(piece)
-        start = m.end()
-    pieces.append(text[start:])
-    for piece in pieces:
-        piece = piece.strip()
-        if not piece:
-            continue
-        heading = _HEADING.match(piece)
-        out.append(Sentence(heading.group(1).strip() if heading else piece, bool(heading), len(out)))
-    return out
-
-
-def clip(text: str, start: int, end: int, limit: int = QUOTE_LIMIT) -> str:
-    """The words of ``text`` around [start, end), cut at word boundaries."""
-    start = max(0, start)
-    end = min(len(text), end)
-    if end - start > limit:
-        end = start + limit
-    while 0 < start < len(text) and text[start].isalnum() and text[start - 1].isalnum():
-        start -= 1
-    while 0 < end < len(text) and text[end - 1].isalnum() and text[end].isalnum():
-        end += 1
-    piece = text[start:end].strip(" ,;:#")
-    return printable(piece, limit + 20)
-
-
-# --- classification -----------------------------------------------------------
-
-@dataclass(frozen=True)
-class Decision:
-    rule: R.Rule | None
-    cue_start: int  # where the deciding words start (sentence offsets)
-    cue_end: int
-
-
-def _is_count(n: Number | None) -> bool:
-    return (n is not None and math.isfinite(n.value) and n.value >= 1 and n.value == int(n.value)
-            and not n.percent)
-
-
-def sentence_cues(sentence: str) -> dict:
-    """The first match of each sentence-wide rule, found once per sentence."""
-    return {rule.name: rule.regex.search(sentence) for rule in R.SENTENCE}
-
-
-def classify(sentence: str, mention: Mention, left_from: int, right_to: int,
-             cues: dict | None = None) -> Decision:
-    """The rule that decides a mention's role (None: the default for its kind)."""
-    cues = sentence_cues(sentence) if cues is None else cues
-    left = sentence[max(left_from, mention.start - 90):mention.start]
-    left_offset = max(left_from, mention.start - 90)
-    right = sentence[mention.end:min(right_to, mention.end + 80)]
-    whole = mention.kind == R.VALUE and _is_count(mention.value)
-    best = None  # (strength, -distance, -order)
-    for order, rule in enumerate(R.RIGHT):
-        if mention.kind not in rule.kinds or (rule.whole and not whole):
-            continue
-        m = rule.regex.match(right)
-        if m:
-            key = (rule.strength, 0, -order)
-            if best is None or key > best[0]:
-                best = (key, rule, mention.start, mention.end + m.end())
-    if mention.word:
-        return Decision(best[1], best[2], best[3]) if best else Decision(None, mention.start, mention.end)
-    for order, rule in enumerate(R.LEFT):
-        if mention.kind not in rule.kinds or (rule.whole and not whole):
-            continue
-        last = None
-        for m in rule.regex.finditer(left):
-            last = m
-        if last is None:
-            continue
-        distance = len(left) - last.end()
-        if distance > rule.reach:
-            continue
-        key = (rule.strength, -distance, -order - 100)
-        if best is None or key > best[0]:
-            best = (key, rule, left_offset + last.start(), mention.end)
-    for order, rule in enumerate(R.SENTENCE):
-        if mention.kind not in rule.kinds or (rule.whole and not whole and mention.kind == R.VALUE):
-            continue
-        m = cues.get(rule.name)
-        if m and m.end() <= mention.start:
-            key = (rule.strength, 0, -order - 200)
-            if best is None or key > best[0]:
-                best = (key, rule, m.start(), mention.end)
-    if best is None:
-        return Decision(None, max(left_from, mention.start - 30), mention.end)
-    return Decision(best[1], best[2], best[3])
 
 
 # --- the builder ----------------------------------------------------------------
@@ -224,9 +47,9 @@ class _Builder:
         self.single_error: list[Field] = []
         self.order = 0
 
-    def add(self, path, value, quote, rule, guess="", heading=False):
+    def add(self, path, value, quote, rule, guess="", heading=False, computed=False):
         self.order += 1
-        self.fields.append(Field(tuple(path), value, quote, rule, guess, heading, self.order))
+        self.fields.append(Field(tuple(path), value, quote, rule, guess, heading, self.order, computed))
 
     # Numbers printed with errors go to a field and its error fields.
     def measurement(self, m: Mention, base: tuple, error: tuple, quote, rule, heading, syst=None):
@@ -343,7 +166,7 @@ class _Builder:
         elif role in ("discordant_ours", "discordant_theirs", "discordant"):
             if m.kind == R.PAIR:
                 for n in (m.low, m.high):
-                    if _is_count(n):
+                    if is_count(n):
                         self.discordant.append(Field(("discordant",), n, quote, rule, "", heading, len(self.discordant)))
                 return
             slot = {"discordant_ours": 0, "discordant_theirs": 1}.get(role, len(self.discordant))
@@ -360,12 +183,13 @@ class _Builder:
 
     def ratio(self, m: Mention, quote, rule, heading):
         k, n = m.low, m.high
-        if not (_is_count(n) and k.whole and 0 <= k.value <= n.value):
+        if not (is_count(n) and k.whole and 0 <= k.value <= n.value):
             self.unplaced.append((f"{k.text}/{n.text}", quote, "not a count out of a whole"))
             return
         self.add(("estimate",), _fraction_text(m, exact=False), quote, rule,
-                 f"printed as {k.text}/{n.text}: the proportion is written with ten significant digits", heading)
-        self.add(("samples",), n, quote, rule, heading=heading)
+                 f"printed as {k.text}/{n.text}: the proportion is written with ten significant digits", heading,
+                 computed=True)
+        self.add(("samples",), n, quote, rule, heading=heading, computed=True)
 
     def interval(self, m: Mention, quote, rule, heading):
         self.add(("interval", "low"), m.low, quote, rule, heading=heading)
@@ -397,95 +221,6 @@ def _fraction_text(m: Mention, exact: bool) -> Number:
     return Number(text, float(value))
 
 
-def _rescale(n: Number, power: int, percent: bool) -> Number:
-    """A table cell scaled by its column heading's 10^power or percent sign."""
-    text = n.text
-    pct = text.endswith("%") or percent
-    body = text.rstrip("%")
-    mantissa, _, exp = body.partition("e")
-    return number(mantissa, (int(exp) if exp else 0) + power or None, pct)
-
-
-# --- tables ------------------------------------------------------------------------
-
-_SCALE_BRACKETED = re.compile(r"[(\[]\s*(?:×|x)?\s*10\s*\^\s*([-+]?\d+)\s*[)\]]|in\s+units\s+of\s+10\s*\^\s*([-+]?\d+)", re.I)
-_SCALE_TIMES = re.compile(r"×\s*10\s*\^\s*([-+]?\d+)")
-_SCALE_PERCENT = re.compile(r"[(\[]\s*%\s*[)\]]|\bin\s+%|\(percent\)|\bpercent\b", re.I)
-
-
-@dataclass(frozen=True)
-class Column:
-    field: str
-    power: int
-    percent: bool
-    heading: str
-
-
-def read_columns(table: Table) -> tuple[int | None, list[Column | None], list[str]]:
-    """The label column and each column's field (None when unknown)."""
-    headers = [normalize(h) for h in table.header]
-    label = None
-    if table.rows:
-        first = [row[0] if row else "" for row in table.rows]
-        lettered = sum(bool(re.search(r"[A-Za-z]", c)) for c in first)
-        if lettered * 2 >= len(first) or not any(re.search(r"\d", c) for c in first):
-            label = 0
-    columns: list[Column | None] = []
-    used: set = set()
-    guesses = []
-    for i, heading in enumerate(headers):
-        if i == label:
-            columns.append(None)
-            continue
-        power, percent = 0, False
-        m = _SCALE_BRACKETED.search(heading)
-        if m:
-            power = int(m.group(1) or m.group(2))
-            guesses.append(f"column {heading!r}: cells read in units of 10^{power}")
-            plain = heading[:m.start()] + heading[m.end():]
-        else:
-            t = _SCALE_TIMES.search(heading)
-            if t:
-                power = -int(t.group(1))
-                guesses.append(f"column {heading!r}: the cells are the value times 10^{t.group(1)}")
-                plain = heading[:t.start()] + heading[t.end():]
-            else:
-                plain = heading
-        if _SCALE_PERCENT.search(plain):
-            percent = True
-            plain = _SCALE_PERCENT.sub(" ", plain)
-        low = plain.strip().lower()
-        chosen = None
-        for name, pattern in R.COLUMNS:
-            if re.search(pattern, low, re.I) and name not in used:
-                chosen = name
-                break
-        if chosen:
-            used.add(chosen)
-        columns.append(Column(chosen, power, percent, heading) if chosen else None)
-    return label, columns, guesses
-
-
-def cell_numbers(cell: str, column: Column) -> tuple[Number | None, Number | None, Number | None]:
-    """(value, stat error, syst error) printed in one cell."""
-    text = normalize(cell)
-    found = [m for m in find_mentions(text, limit=3) if m.kind in (R.VALUE, R.MEASUREMENT)]
-    if not found:
-        return None, None, None
-    m = found[0]
-    scale = (lambda n: _rescale(n, column.power, column.percent) if n is not None else None)
-    stat = syst = None
-    if m.errors:
-        for err, label in m.errors:
-            if label == "syst" and syst is None:
-                syst = err
-            elif stat is None:
-                stat = err
-    elif m.minus is not None:
-        stat = m.minus
-    return scale(m.value), scale(stat), scale(syst)
-
-
 # --- the whole text ------------------------------------------------------------------
 
 def _first_text_rules(text: str) -> dict:
@@ -510,24 +245,6 @@ def _first_text_rules(text: str) -> dict:
     return found
 
 
-def _sentence_bounds(text: str, start: int, end: int) -> tuple[int, int]:
-    left = max(text.rfind(". ", 0, start), text.rfind("\n", 0, start))
-    right_candidates = [p for p in (text.find(". ", end), text.find("\n", end)) if p != -1]
-    right = min(right_candidates) if right_candidates else len(text)
-    return (left + 1 if left >= 0 else 0), right
-
-
-def _sentence_of(text: str, start: int, end: int) -> str:
-    left, right = _sentence_bounds(text, start, end)
-    return text[left:right]
-
-
-def _text_quote(text: str, start: int, end: int) -> str:
-    """The words around a whole-text match, inside its sentence."""
-    left, right = _sentence_bounds(text, start, end)
-    return clip(text, max(left, start - 25), min(right, end + 25))
-
-
 def _budget(b: _Builder, sentence: Sentence) -> list[tuple[int, int]]:
     spans = []
     i = len([f for f in b.fields if f.path[0] == "error_budget" and f.path[2] == "name"])
@@ -536,7 +253,7 @@ def _budget(b: _Builder, sentence: Sentence) -> list[tuple[int, int]]:
         name = m.group("name").strip()
         count = number(m.group("count"))
         error = _plain_number(m.group("error"))
-        if error is None or not _is_count(count):
+        if error is None or not is_count(count):
             continue
         quote = clip(sentence.text, m.start(), m.end())
         b.add(("error_budget", i, "name"), name, quote, "error-budget", heading=sentence.heading)
@@ -606,7 +323,7 @@ def draft_text(text: str, name: str, require_estimate: bool = True) -> Draft:
         for i, m in enumerate(mentions):
             prev_end, next_start = bounds[i], nexts[i]
             decision = classify(sentence.text, m, prev_end, next_start, cues)
-            quote = clip(sentence.text, decision.cue_start, decision.cue_end)
+            quote = clip(sentence.text, max(decision.cue_start, m.start - 60), decision.cue_end)
             rule = decision.rule
             if rule is not None:
                 b.trace.append(rule.name)
@@ -673,7 +390,7 @@ def _tables(b: _Builder, tables: list[Table]) -> Table | None:
                     if stat is not None:
                         cells.setdefault("stat_error", stat)
                 elif col.field in ("samples", "circuits"):
-                    if _is_count(value):
+                    if is_count(value):
                         cells.setdefault(col.field, value)
                 else:
                     cells.setdefault(col.field, value)
@@ -720,7 +437,7 @@ def _budget_table(b: _Builder, table: Table, label: int, columns: list[Column | 
             if key == "error" and stat is not None:
                 item.setdefault("error_sd", stat)
         name = normalize(row[label]) if label < len(row) else ""
-        if not name or "error" not in item or ("count" in item and not _is_count(item["count"])):
+        if not name or "error" not in item or ("count" in item and not is_count(item["count"])):
             continue
         b.add(("error_budget", i, "name"), printable(name, 80), quote, "table-budget")
         for key in ("count", "error", "error_sd"):
@@ -732,13 +449,13 @@ def _budget_table(b: _Builder, table: Table, label: int, columns: list[Column | 
 
 def _text_fields(b: _Builder, found: dict, text: str, tables) -> None:
     for role, (rule, m) in found.items():
-        quote = _text_quote(text, m.start(), m.end())
+        quote = text_quote(text, m.start(), m.end())
         if role in ("metric", "budget"):
             continue
         b.trace.append(rule.name)
         if role == "sided":
             b.deferred.append(("sided", "two" if rule.name == "sided-two" else "one", quote, rule.name,
-                               bool(R.COMPARISON_SENTENCE.search(_sentence_of(text, m.start(), m.end())))))
+                               bool(R.COMPARISON_SENTENCE.search(sentence_of(text, m.start(), m.end())))))
         elif role == "systematics":
             b.add(("significance", "systematics"), rule.name.split("-", 1)[1], quote, rule.name)
         elif role == "error_at":
@@ -760,9 +477,9 @@ def _choose(fields: list[Field]) -> tuple[list[Field], list[Field]]:
     """One field per path: body text before headings, then first printed."""
     chosen: dict = {}
     also = []
-    for f in sorted(fields, key=lambda f: (f.heading, f.order)):
+    for f in sorted(fields, key=lambda f: (f.heading, f.computed, f.order)):
         if f.path in chosen:
-            if _text(f.value) != _text(chosen[f.path].value):
+            if _text(f.value) != _text(chosen[f.path].value) and not f.computed:
                 also.append(f)
             continue
         chosen[f.path] = f
@@ -813,7 +530,7 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
                 add(("stat_error",), err.value, err.quote, err.rule, "the combination's error")
         else:
             for m, sentence, quote in b.fallbacks:
-                if m.kind == R.VALUE and not (_is_count(m.value) and m.value.value >= 1900 and m.value.whole):
+                if m.kind == R.VALUE and not (is_count(m.value) and m.value.value >= 1900 and m.value.whole):
                     add(("estimate",), m.value, quote, "fallback-estimate",
                         "no words mark this number as the result; it is the first number not placed elsewhere")
                     b.trace.append("fallback-estimate")
@@ -834,11 +551,11 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
     if metric_rule is not None:
         rule, m = metric_rule
         metric = R.METRIC_OF_RULE[rule.name]
-        metric_quote = _text_quote(text, m.start(), m.end())
+        metric_quote = text_quote(text, m.start(), m.end())
         b.trace.append(rule.name)
     elif R.FIDELITY_WORD.search(text):
         m = R.FIDELITY_WORD.search(text)
-        metric, metric_quote = "linear-xeb", _text_quote(text, m.start(), m.end())
+        metric, metric_quote = "linear-xeb", text_quote(text, m.start(), m.end())
         metric_guess = ("the text says fidelity without naming how it was estimated: linear XEB is a guess "
                         "(a GHZ or state fidelity from counts is metric proportion)")
         b.trace.append("metric-fidelity")
@@ -904,9 +621,11 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
     if b.discordant and baseline:
         ds = sorted(b.discordant, key=lambda f: f.order)[:2]
         if len(ds) == 2:
+            guess = ("the counts name no side: the first printed is taken as the items only the claim's "
+                     "method got right" if ds[0].rule in ("discordant", "discordant-only-by") else "")
             add(("comparison", "discordant"), (ds[0].value, ds[1].value),
                 printable(ds[0].quote + (" ... " + ds[1].quote if ds[1].quote != ds[0].quote else ""), QUOTE_LIMIT),
-                ds[0].rule)
+                ds[0].rule, guess)
     # Fields that mean nothing without their group.
     final = [f for f in fields + extra if _belongs(f, have, metric)]
     dropped_quietly = [f for f in fields + extra if f not in final]
@@ -916,7 +635,7 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
         unplaced.append((_text(f.value), f.quote, f"read as {'.'.join(map(str, f.path))}, which needs fields "
                          "the text does not print"))
     # Title.
-    heading = next((s.text for s in sentences if s.heading), None)
+    heading = next((s.text for s in sentences if s.heading and not R.GENERIC_HEADING.match(s.text.strip())), None)
     title_guess = ""
     if heading:
         title, title_quote, title_rule = printable(heading, 200), "", "heading"
@@ -931,18 +650,18 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
     else:
         estimate = next((f for f in final if f.path == ("estimate",)), None)
         source = estimate.quote if estimate else ""
-        first = next((s.text for s in sentences if estimate and estimate.value.text.split("e")[0].rstrip("%").lstrip("-")
-                      in s.text), sentences[0].text if sentences else source)
+        body = [s for s in sentences if not s.heading and len(s.text.split()) >= 4]
+        first = body[0].text if body else (sentences[0].text if sentences else source)
         title = printable(first, 100).rstrip(".") or f"Claim drafted from {b.name}"
         title_quote, title_rule = "", "title-sentence"
-        title_guess = "the sentence that prints the estimate: shorten it to what the claim is about"
+        title_guess = "the text's first sentence: shorten it to what the claim is about"
     final.insert(0, Field(("title",), title, title_quote, title_rule, title_guess, False, -1))
     # Estimate or nothing.
     if require_estimate and not any(f.path == ("estimate",) for f in final) and metric != "counts":
         raise DraftError(name_of(b), "prints no number that reads as the estimate",
                          "paste the sentence with the result (such as 'an accuracy of 91.3% ± 0.8%' or "
                          "'a fidelity of (2.24 ± 0.21) × 10^-3')")
-    missing = _missing(final, metric)
+    missing = still_needed(final, metric)
     return Draft(b.name, tuple(final), tuple(also), tuple(unplaced), tuple(missing), tuple(notes), (),
                  tuple(dict.fromkeys(b.trace)))
 
@@ -963,39 +682,3 @@ def _belongs(f: Field, have: set, metric: str) -> bool:
     if head in ("observed", "background", "background_error"):
         return metric == "counts"
     return True
-
-
-# What the checks still need, as commented-out lines: (path, why, when).
-NEEDS = (
-    (("source",), "where the numbers were read (paper, version, table)", lambda d, m: True),
-    (("qubits",), "the XEB metrics take the dimension D = 2**qubits (error-floor, bounds)",
-     lambda d, m: m in ("linear-xeb", "log-xeb")),
-    (("stat_error",), "error-floor and significance need the standard error as printed",
-     lambda d, m: m != "counts" and not d("interval", "low")),
-    (("samples",), "error-floor needs the samples behind the estimate (shots, test items, runs)",
-     lambda d, m: m not in ("heavy-output", "counts")),
-    (("circuits",), "heavy output's standard error comes from the number of circuits",
-     lambda d, m: m == "heavy-output"),
-    (("sd",), "error-floor needs the per-sample standard deviation of a mean",
-     lambda d, m: m == "mean"),
-    (("threshold",), "significance needs the value the claim says it exceeds",
-     lambda d, m: m != "counts" and not d("baseline", "estimate")),
-    (("significance", "sigma"), "significance compares the printed sigma (or p_value)",
-     lambda d, m: (d("threshold") or m == "counts") and not d("significance", "p_value")),
-    (("trials",), "look-elsewhere needs the configurations tried, if this is the best of several",
-     lambda d, m: d("significance", "sigma") or d("significance", "p_value")),
-    (("baseline", "stat_error"), "comparison needs the baseline's own error (or its samples)",
-     lambda d, m: d("baseline", "estimate") and not d("baseline", "samples")),
-    (("comparison", "paired"), "comparison needs to know whether both were measured on the same items",
-     lambda d, m: d("baseline", "estimate")),
-    (("comparison", "discordant"), "a paired comparison of proportions needs the two discordant counts",
-     lambda d, m: d("baseline", "estimate") and d("comparison", "paired")),
-    (("background_error",), "the background's own uncertainty, if printed",
-     lambda d, m: m == "counts"),
-)
-
-
-def _missing(fields: list[Field], metric: str) -> list[tuple]:
-    have = {f.path for f in fields}
-    d = lambda *p: tuple(p) in have  # noqa: E731
-    return [(path, why) for path, why, when in NEEDS if path not in have and when(d, metric)]

@@ -15,7 +15,8 @@ from decimal import Decimal, InvalidOperation
 from ..claim import claim_from_document
 from ..claim.load import parse_text
 from ..errors import ClaimcheckError
-from .assemble import Draft, DraftError, Field
+from .model import Draft, DraftError, Field
+from .needs import missing as still_needed
 from .notation import Number
 from .writer import render_yaml
 
@@ -59,10 +60,17 @@ def make_loadable(draft: Draft) -> tuple[Draft, str]:
         text = render_yaml(draft)
         try:
             claim_from_document(parse_text(text, draft.name, "yaml"))
+            if draft.dropped:
+                # What a check still needs, now that some fields are gone.
+                metric = draft.get(("metric",))
+                needed = tuple(still_needed(list(draft.fields), metric.value if metric else ""))
+                if needed != draft.missing:
+                    draft = replace(draft, missing=needed)
+                    text = render_yaml(draft)
             return draft, text
         except ClaimcheckError as exc:
             path = _path(exc.path)
-            problem = exc.problem + (f"; {exc.allowed}" if exc.allowed else "")
+            problem = exc.problem + (f"; {exc.allowed}" if exc.allowed and len(exc.allowed) < 80 else "")
             if not path and "estimate" in exc.problem and draft.get(("estimate",)) is None:
                 estimate = _yield(draft)
                 if estimate is None:

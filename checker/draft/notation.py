@@ -111,6 +111,7 @@ _SEPARATOR = re.compile(r"\s*[,;]\s*")
 _CLOSE = re.compile(r"\s*[\])]")
 _RANGE = re.compile(r"\s*(?:–|to|-)\s*")
 _RATIO = re.compile(r"\s*/\s*")
+_OUT_OF = re.compile(r"\s+(?:out\s+of|of)\s+(?:the\s+|all\s+)?(?=\d)")
 _WORD_NUMBERS = {
     "one": 1, "two": 2, "three": 3, "four": 4, "five": 5, "six": 6, "seven": 7, "eight": 8,
     "nine": 9, "ten": 10, "eleven": 11, "twelve": 12, "thirteen": 13, "fourteen": 14,
@@ -419,6 +420,13 @@ def _parse_at(text: str, pos: int) -> Mention | None:
     if ratio and v.exponent is None and not v.percent and re.fullmatch(r"[\d,]+", v.mantissa):
         b = _read_value(text, ratio.end(), allow_exponent=False)
         if b is not None and re.fullmatch(r"[\d,]+", b.mantissa) and not b.percent:
+            return Mention("ratio", start, b.end, low=_number(v), high=_number(b))
+    # k of N, k out of N: a count out of a whole when both are whole and k <= N.
+    out_of = _OUT_OF.match(text, v.end)
+    if out_of and v.exponent is None and not v.percent and re.fullmatch(r"[\d,]+", v.mantissa):
+        b = _read_value(text, out_of.end(), allow_exponent=False)
+        if (b is not None and re.fullmatch(r"[\d,]+", b.mantissa) and not b.percent
+                and int(v.mantissa.replace(",", "")) <= int(b.mantissa.replace(",", ""))):
             return Mention("ratio", start, b.end, low=_number(v), high=_number(b))
     if not v.percent and v.exponent is None and "." in v.mantissa:
         rng = _RANGE.match(text, v.end)

@@ -128,6 +128,9 @@ RIGHT = (
     Rule("discordant-theirs", "discordant_theirs", NUMBERS, "right",
          rf"\s+(?:{_GAP}\s+){{0,2}}(?:that\s+|which\s+|where\s+)?only\s+(?:the\s+)?(?:baseline|previous|old|reference|theirs|they\b)",
          UNIT, "There are 58 items only ours got right and 30 only the baseline got right.", whole=True),
+    Rule("discordant-only-by", "discordant", NUMBERS, "right",
+         rf"\s+(?:{_GAP}\s+){{0,3}}?only\s+(?:by|with|for)\b", UNIT,
+         "There are 58 questions solved only by Kittiwake and 30 only by Fulmar.", whole=True),
     Rule("count-qubits", "qubits", NUMBERS, "right", _noun(r"qubits?"), UNIT,
          "The 30-qubit lattice gives 0.0018 ± 0.0002.", whole=True),
     Rule("count-circuits", "circuits", NUMBERS, "right", _noun(CIRCUIT_NOUNS), UNIT,
@@ -174,6 +177,10 @@ LEFT = (
          "As Fig. 3 shows, the fidelity is 0.0018 ± 0.0002.", reach=0),
     Rule("times-operand", "operand", _kinds(VALUE), "left", r"×\s*$", REFERENCE + 1,
          "A PDF copy prints 2.5 × 107 samples and a fidelity of 0.0185 ± 0.0020.", reach=0),
+    Rule("each-sampled", "per_part", NUMBERS, "left",
+         r"\beach\b[^.;]{0,60}?\b(?:was|is|were|are)\s+(?:sampled|measured|run|repeated|evaluated)\s*$",
+         REFERENCE, "Each circuit was sampled 2.0 × 10^6 times; the fidelity is 0.0018 ± 0.0002.", reach=0,
+         whole=True),
     Rule("p-value", "p_value", _kinds(VALUE), "left",
          r"(?<![\w.])p(?:[- ]?values?)?\s*(?:of|is|was)?\s*(?:=|<|>|≤|≈)?\s*$", REFERENCE,
          "The excess is significant (p = 1.4 × 10^-15).", reach=0),
@@ -235,12 +242,12 @@ LEFT = (
          r"\b(?:factor|scaled\s+by|multiplied\s+by|extrapolat\w*|correction)\b", STRONG,
          "The headline is the patch value times a correction factor of 0.93 ± 0.03."),
     Rule("combined", "combination", NUMBERS, "left",
-         r"\b(?:combined|combination|weighted\s+(?:mean|average)|pooled|overall)\b", STRONG,
+         r"\b(?:combined|combining|combination|weighted\s+(?:mean|average)|pooled|overall)\b", STRONG,
          "The combined value of the twelve circuits is 0.00178 ± 0.00020."),
     Rule("threshold", "threshold", _kinds(VALUE), "left",
          r"\b(?:above|exceed(?:s|ed|ing)?|surpass\w*|beyond|greater\s+than|larger\s+than|higher\s+than|"
          r"more\s+than|threshold|bound|limit|null(?:[- ]hypothesis)?(?:\s+value)?|target|chance(?:\s+level)?|"
-         r"random\s+guessing|criterion|cut-?off)\b",
+         r"random\s+guessing|criterion|cut-?off)\b|\bexcess\s+(?:over|above)\b",
          STRONG, "The fidelity of 0.0018 ± 0.0002 lies above the threshold of 0.001."),
     Rule("estimate-words", "estimate", NUMBERS, "left",
          r"(?:\b(?:of|is|was|are|were|reach(?:es|ed|ing)?|achiev\w*|attain\w*|obtain\w*|measur\w*|gives?|gave|"
@@ -250,10 +257,13 @@ LEFT = (
 )
 
 SENTENCE = (
+    Rule("baseline-subject", "baseline", NUMBERS, "sentence",
+         r"^(?:the\s+|our\s+|a\s+)?(?:[\w-]+\s+){0,2}?(?:baselines?|previous\s+best|prior\s+best|state[- ]of[- ]the[- ]art)\b",
+         SENTENCE_WIDE, "The strongest baseline, an invented model called Fulmar, reaches 89.0% on the same questions."),
     Rule("discordant", "discordant", _kinds(VALUE, PAIR), "sentence", r"\bdiscordant\b", STRONG,
          "The discordant counts are 58 and 30.", whole=True),
     Rule("combined-sentence", "combination", _kinds(MEASUREMENT), "sentence",
-         r"\b(?:combined|combination|weighted\s+(?:mean|average)|pooled)\b", SENTENCE_WIDE,
+         r"\b(?:combined|combining|combination|weighted\s+(?:mean|average)|pooled)\b", SENTENCE_WIDE,
          "Combined with inverse-variance weights, the twelve circuits give 0.00178 ± 0.00020."),
 )
 
@@ -380,6 +390,15 @@ COLUMNS = (
                  r"|\brate\b|\bprobability|\bresult|^f$|^h$|\bproportion|\bfraction|\bratio|\byield|\bsignal"
                  r"|\berror\s+rate|\binfidelity"),
 )
+# A first column of whole numbers is still the parts' labels when its heading says so.
+LABEL_HEADING = re.compile(
+    r"^(?:circuit|family|config\w*|setting|patch|instance|name|label|model|method|system|device|run|"
+    r"seed|id|#|no\.?|part|split|task|dataset|component|row|benchmark|index)s?\b", re.I)
+# Headings too generic to be a claim's title.
+GENERIC_HEADING = re.compile(
+    r"^(?:abstract|results?|introduction|discussion|conclusions?|methods|summary|main\s+results|"
+    r"experimental\s+results|evaluation|\d+(?:\.\d+)*)\.?$", re.I)
+
 # The row of a results table that holds the combination of the others.
 COMBINED_ROW = re.compile(
     r"^(?:combined|total|all(?:\s+\w+)?|overall|mean|average|weighted(?:\s+mean|\s+average)?|pooled|"

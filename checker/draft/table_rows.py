@@ -16,7 +16,9 @@ from dataclasses import dataclass
 
 from ..claim import claim_from_document
 from ..errors import ClaimcheckError
-from .assemble import DraftError, cell_numbers, draft_text, read_columns
+from .assemble import draft_text
+from .columns import cell_numbers, read_columns
+from .model import DraftError
 from .normalize import normalize, printable, strip_control
 from .tables import extract_tables
 from .writer import scalar

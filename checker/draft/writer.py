@@ -17,7 +17,7 @@ import json
 import re
 
 from ..stats.precision import is_number_text
-from .assemble import Draft, Field
+from .model import Draft, Field
 from .normalize import printable
 from .notation import Number
 

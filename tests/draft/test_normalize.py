@@ -15,7 +15,7 @@ from checker.draft.normalize import normalize, printable, strip_control
     (r"$7.9\sigma$", "7.9σ"),
     ("7.9\U0001d70e", "7.9σ"),
     ("\u22120.12 \u00b1 0.05", "-0.12 ± 0.05"),
-    (r"0.21_{\rm stat}", "0.21_ stat"),
+    (r"0.21_{\rm stat}", "0.21_stat"),
     (r"$\mathcal{F}_{\mathrm{XEB}} = 0.5$", "F_XEB = 0.5"),
     (r"above $\frac{2}{3}$", "above 2/3"),
     (r"\num{1.85e-3}", "1.85e-3"),
