@@ -91,8 +91,9 @@ def run(args, stdout, stderr) -> int:
     draft, yaml_text = make_loadable(draft_text(text, name))
     if args.out:
         write_atomic(args.out, yaml_text, inputs)
+        guesses = sum(bool(f.guess) for f in draft.fields)
         stdout.write(f"wrote a draft claim to {args.out}: {len(draft.fields)} fields, "
-                     f"{len(draft.missing)} still needed, {sum(bool(f.guess) for f in draft.fields)} guesses\n")
+                     f"{len(draft.missing)} still needed, {guesses} {'guess' if guesses == 1 else 'guesses'}\n")
     else:
         stdout.write(yaml_text)
     if not args.check:

@@ -85,7 +85,7 @@ def read_columns(table: Table) -> tuple[int | None, list[Column | None], list[st
 def cell_numbers(cell: str, column: Column) -> tuple[Number | None, Number | None, Number | None]:
     """(value, stat error, syst error) printed in one cell."""
     text = normalize(cell)
-    found = [m for m in find_mentions(text, limit=3) if m.kind in (R.VALUE, R.MEASUREMENT)]
+    found = [m for m in find_mentions(text, limit=3) if m.kind in (R.VALUE, R.MEASUREMENT, R.SIGMA)]
     if not found:
         return None, None, None
     m = found[0]

@@ -108,7 +108,7 @@ def draft_rows(text: str, name: str) -> RowsDraft:
         for key, value in shared.items():
             cells.setdefault(key, value)
         cells["title"] = title
-        cells["# words"] = printable(line, 200)
+        cells["# words"] = printable(normalize(line), 200)
         records.append(cells)
     if not records:
         raise DraftError(name, "holds a table whose rows print no value in the results column",
