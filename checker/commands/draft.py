@@ -33,6 +33,8 @@ def _read(path: str) -> tuple[str, str]:
     from ..errors import InputFileError
 
     if path == "-":
+        if sys.stdin is None:
+            raise InputFileError(STDIN, "is closed", "give a text file, or pipe the text in")
         stream = getattr(sys.stdin, "buffer", None)
         raw = stream.read(MAX_TEXT_BYTES + 1) if stream is not None else sys.stdin.read(MAX_TEXT_BYTES + 1)
         name = STDIN

@@ -314,7 +314,8 @@ TEXT = (
          r"\bpaired\b|\bsame\s+(?:[\d,]+\s+)?(?:test\s+)?(?:items|examples|questions|images|samples|problems|instances|set|clips)\b",
          STRONG, "Both were measured on the same 1,200 test items."),
     Rule("method-inverse-variance", "method", frozenset(), "text",
-         r"\binverse[- ]variance\b|\bweighted\s+by\s+(?:the\s+)?(?:inverse\s+)?(?:of\s+)?(?:their\s+)?variances?\b",
+         r"\binverse[- ]variance\b|\bweighted\s+by\s+(?:the\s+)?(?:inverse\s+)?(?:of\s+)?(?:their\s+)?variances?\b"
+         r"|\bweighted\s+by\s+(?:the\s+|their\s+)?(?:inverse\s+)?(?:squared\s+)?(?:errors|uncertainties)\b",
          STRONG, "The 12 circuits are combined with inverse-variance weights."),
     Rule("method-random-effects", "method", frozenset(), "text",
          r"\brandom[- ]effects?\b|\bDerSimonian\b|\bPaule[- ]Mandel\b", STRONG,
