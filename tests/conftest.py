@@ -7,12 +7,21 @@ than modules to import.
 
 from __future__ import annotations
 
+import os
 import textwrap
 
 import pytest
+from hypothesis import settings
 
 from checker.checks import run_checks
 from checker.claim import read_claim
+
+# Property tests draw the same examples on every run unless asked otherwise, so
+# a run can never hang or fail on a lucky draw: CLAIMCHECK_HYPOTHESIS=explore
+# searches afresh (see DEVELOPERS.md).
+settings.register_profile("fixed", derandomize=True, database=None, print_blob=True)
+settings.register_profile("explore", derandomize=False)
+settings.load_profile(os.environ.get("CLAIMCHECK_HYPOTHESIS", "fixed"))
 
 
 @pytest.fixture
