@@ -26,6 +26,7 @@ COMMANDS = {
     "raw": "raw",
     "simulate": "simulate",
     "drift": "drift",
+    "draft": "draft",
 }
 
 DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs and say, number by "
