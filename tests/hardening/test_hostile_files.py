@@ -62,7 +62,8 @@ def special_files(folder: Path) -> dict:
 def input_commands(path: Path, folder: Path) -> list:
     """Every command reading ``path`` in the place of each of its inputs."""
     if path.suffix == ".yaml":
-        return [["check", path], ["check", path, "--json"], ["raw", RAW, "--claim", path, *FAST_RAW]]
+        return [["check", path], ["check", path, "--json"], ["raw", RAW, "--claim", path, *FAST_RAW],
+                ["draft", path]]
     return [["raw", path, "--metric", "linear-xeb", "--qubits", "12", *FAST_RAW], ["batch", path],
             ["drift", path], ["batch", path, "--out", folder / "out" / "s.csv"]]
 
