@@ -1,11 +1,12 @@
 # make demo: run claimcheck on every example claim.  make test: run the test suite.
+# make search: the property tests with fresh random examples (local use).
 # Both create .venv when missing and install everything from PyPI into it.
 PYTHON ?= python3
 VENV := .venv
 BIN := $(VENV)/bin
 STAMP := $(VENV)/.installed
 
-.PHONY: demo test bench clean
+.PHONY: demo test search bench clean
 
 $(BIN)/python:
 	$(PYTHON) -m venv $(VENV)
@@ -36,6 +37,10 @@ demo: $(STAMP)
 
 test: $(STAMP)
 	$(BIN)/python -m pytest
+
+# The property tests with fresh random draws (make test always draws the same ones).
+search: $(STAMP)
+	CLAIMCHECK_HYPOTHESIS=explore $(BIN)/python -m pytest tests -q
 
 bench: $(STAMP)
 	$(BIN)/python benchmarks/run_all.py

@@ -1,7 +1,8 @@
 """Argument parsing and dispatch only: ``run(argv, stdout, stderr) -> int``.
 
-Exit status: 0 no check failed; 1 a check failed; 2 the input could not be
-used (one line on stderr naming the file, the field and what is wrong).
+Exit status: 0 no check failed; 1 a check failed (and nothing else); 2 the input
+could not be used (one line on stderr naming the file, the field and what is
+wrong); 3 claimcheck itself failed (one line; a bug to report).
 """
 
 from __future__ import annotations
@@ -9,10 +10,12 @@ from __future__ import annotations
 import argparse
 import contextlib
 import importlib
+import re
 import sys
 import warnings
 
 from .errors import ClaimcheckError
+from .visible import SafeStream
 
 # Subcommand name -> module under checker.commands.
 COMMANDS = {
@@ -31,7 +34,14 @@ DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs a
 
 
 class _Parser(argparse.ArgumentParser):
-    """argparse that raises instead of exiting, so run() returns a status."""
+    """argparse that raises instead of exiting, so run() returns a status, and
+    that reads ``--threshold -1e-3`` as a value: Python before 3.13 takes a
+    token starting with "-" for an option unless it is a plain "-1" or "-0.5"
+    (3.13 widened the rule to this one; none of our options looks like a number)."""
+
+    def __init__(self, *args, **kwargs):
+        super().__init__(*args, **kwargs)
+        self._negative_number_matcher = re.compile(r"^-\.?\d")
 
     def error(self, message):
         raise _UsageError(message, self)
@@ -55,8 +65,10 @@ def build_parser() -> tuple[argparse.ArgumentParser, dict]:
 
 
 def run(argv=None, stdout=None, stderr=None) -> int:
-    stdout = stdout if stdout is not None else sys.stdout
-    stderr = stderr if stderr is not None else sys.stderr
+    # Every character written is shown safely (control characters escaped) and
+    # fits the stream's encoding (ASCII spellings on a non-UTF-8 terminal).
+    stdout = SafeStream(stdout if stdout is not None else sys.stdout)
+    stderr = SafeStream(stderr if stderr is not None else sys.stderr, escape=False)
     argv = list(sys.argv[1:] if argv is None else argv)
     parser, modules = build_parser()
     try:
@@ -74,8 +86,10 @@ def run(argv=None, stdout=None, stderr=None) -> int:
     try:
         with warnings.catch_warnings():
             # Degenerate inputs (errors of 1e-200, say) make numpy warn about
-            # overflow on the way to a `skip` finding; the finding says it in words.
-            warnings.simplefilter("ignore", RuntimeWarning)
+            # overflow on the way to a `skip` finding, statsmodels about a
+            # singular matrix, matplotlib about an empty axis; the findings say
+            # what matters in words, and stderr carries only claimcheck's lines.
+            warnings.simplefilter("ignore")
             return modules[args.command].run(args, stdout, stderr)
     except ClaimcheckError as exc:
         stderr.write(exc.one_line() + "\n")
@@ -87,8 +101,26 @@ def run(argv=None, stdout=None, stderr=None) -> int:
         return 0
 
 
+# Exit status of the console script when claimcheck itself fails (a bug, or memory
+# exhausted): never 1, which means only "something was flagged".
+INTERNAL_ERROR = 3
+
+
 def main() -> None:
-    sys.exit(run(sys.argv[1:]))
+    try:
+        status = run(sys.argv[1:])
+    except MemoryError:
+        sys.stderr.write("claimcheck: ran out of memory; the input is beyond what this machine can check "
+                         "(see the limits in the README)\n")
+        status = INTERNAL_ERROR
+    except Exception as exc:  # run() lets a bug surface for tests and the Python API; a shell gets one line
+        from .visible import visible
+
+        sys.stderr.write(" ".join(visible(f"claimcheck: internal error ({type(exc).__name__}: {exc}); this is a "
+                                          "bug in claimcheck, please report it with the input that caused it")
+                                  .split()) + "\n")
+        status = INTERNAL_ERROR
+    sys.exit(status)
 
 
 if __name__ == "__main__":

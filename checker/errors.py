@@ -7,6 +7,8 @@ one line, ``FILE: field.path (line N): what is wrong; what is allowed``.
 
 from __future__ import annotations
 
+from .visible import visible
+
 
 class ClaimcheckError(Exception):
     """Base of every error that means "this input cannot be used".
@@ -43,8 +45,8 @@ class ClaimcheckError(Exception):
         text = f"{where}: {self.problem}"
         if self.allowed:
             text += f"; {self.allowed}"
-        # One line, whatever the user's text held.
-        return " ".join(text.split())
+        # One line, whatever the user's text held, with its control characters shown.
+        return " ".join(visible(text).split())
 
 
 class InputFileError(ClaimcheckError):

@@ -7,6 +7,7 @@ than modules to import.
 
 from __future__ import annotations
 
+import datetime
 import os
 import textwrap
 
@@ -16,11 +17,15 @@ from hypothesis import settings
 from checker.checks import run_checks
 from checker.claim import read_claim
 
-# Property tests draw the same examples on every run unless asked otherwise, so
-# a run can never hang or fail on a lucky draw: CLAIMCHECK_HYPOTHESIS=explore
-# searches afresh (see DEVELOPERS.md).
-settings.register_profile("fixed", derandomize=True, database=None, print_blob=True)
-settings.register_profile("explore", derandomize=False)
+# Property tests draw the same examples on every run unless asked otherwise (profile
+# "fixed", loaded by `make test` and .ci/run), so a run can never hang or fail on a lucky
+# draw; every example has a deadline unless its test sets its own.  "explore" searches
+# afresh, for local use: `make search`, or CLAIMCHECK_HYPOTHESIS=explore (DEVELOPERS.md).
+# The hard limit on any one test is pytest-timeout's (pyproject.toml).
+settings.register_profile("fixed", derandomize=True, database=None, print_blob=True,
+                          deadline=datetime.timedelta(seconds=10))
+settings.register_profile("explore", derandomize=False, print_blob=True,
+                          deadline=datetime.timedelta(seconds=10))
 settings.load_profile(os.environ.get("CLAIMCHECK_HYPOTHESIS", "fixed"))
 
 

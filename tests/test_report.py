@@ -66,3 +66,11 @@ def test_to_frame_has_one_row_per_finding():
 def test_str_is_the_text_rendering():
     r = report("pass")
     assert str(r).startswith("Invented\n") and "verdict: consistent" in str(r)
+
+
+def test_counts_are_written_whole_while_their_digits_are_true():
+    from checker.wording import count
+
+    assert count(14_817_027) == "14,817,027"
+    assert count(10**300) == "1e300" and count(1e300) == "1e300"
+    assert count(float("nan")) == "n/a"

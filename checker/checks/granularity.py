@@ -53,7 +53,7 @@ def _one(claim: Claim, value: Reported, n: Reported | None, what: str, details: 
     if not n.exact:
         return Finding("skip", f"{what}: samples is printed as {n.text}, with limited precision; the "
                        "granularity test needs the count written out in full.", details=details)
-    count = int(n.value)
+    count = _whole(n)
     units = count * items
     per = f" of {items} items each" if items > 1 else ""
     g = granularity(value.low, value.high, units, 0 if proportion else None,
@@ -98,7 +98,7 @@ def check(claim: Claim) -> Iterator[Finding]:
         yield Finding("skip", f"The granularity test applies to proportions and to means of whole-number "
                       f"data; {why}.", details={"missing": ["integer_data"] if claim.metric == "mean" else []})
         return
-    items = int(claim.items.value) if claim.items is not None else 1
+    items = _whole(claim.items) if claim.items is not None else 1
     method = claim.combination.method if claim.combination is not None else None
     if claim.extrapolation is not None:
         yield Finding("skip", "Headline: an extrapolated value is not a count over whole items, so only "
@@ -112,6 +112,13 @@ def check(claim: Claim) -> Iterator[Finding]:
         if part.samples is not None:
             yield _one(claim, part.estimate, part.samples, _part_name(part.label), {"part": part.label},
                        proportion, items)
+
+
+def _whole(count: Reported) -> int:
+    """A count as the whole number printed: from its digits when written out in
+    full (a double holds only 15 to 17 of them), else from its value."""
+    text = count.text.strip()
+    return int(text) if count.exact and text.lstrip("+").isdigit() else int(count.value)
 
 
 def _part_name(label: str) -> str:

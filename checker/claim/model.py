@@ -12,6 +12,10 @@ from ..stats.precision import count_is_exact, parse_printed
 from .load import Document, dotted
 
 DEFAULT_TOLERANCE = 0.02
+# Limits (README, "Limits"): the checks of a claim's parts and error budget grow
+# with their number; beyond these the claim is refused with one line.
+MAX_PARTS = 1_000
+MAX_BUDGET_ITEMS = 1_000
 
 # Definitions are exact however they are printed.
 EXACT_FIELDS = {
@@ -19,6 +23,8 @@ EXACT_FIELDS = {
     ("significance", "required_sigma"), ("significance", "upcrossing_sigma"),
 }
 COUNT_FIELDS = {"qubits", "samples", "circuits", "trials", "items", "count"}
+# Fields where a percentage means nothing: counts, and significances in sigma.
+NO_PERCENT_FIELDS = COUNT_FIELDS | {"sigma", "required_sigma", "global_sigma", "upcrossings", "upcrossing_sigma"}
 
 
 @dataclass(frozen=True)
@@ -173,6 +179,10 @@ class _Builder:
             return Reported(bound.value, 0.0, bound.value, text, dotted(path), self.doc.line_of(path),
                             -math.inf, bound.log_high)
         counting = name in COUNT_FIELDS
+        if name in NO_PERCENT_FIELDS and text.endswith("%"):
+            what = "a count" if counting else "a significance in sigma"
+            self.fail(path, f"{name} is {what}, so the percentage {text} means nothing",
+                      "write it without a percent sign, such as " + ("30 or 2.5e7" if counting else "4.2"))
         exact = path in EXACT_FIELDS or (counting and count_is_exact(text))
         printed = self._parse(text, path, name, exact)
         if counting and (printed.value < 1 or printed.value != math.floor(printed.value)):
@@ -184,8 +194,11 @@ class _Builder:
     def _parse(self, text, path, name, exact, shown=None):
         try:
             return parse_printed(text, exact=exact)
-        except ValueError:
-            self.fail(path, f"{name} must be a number, got {shown or text!r}",
+        except ValueError as exc:
+            if "beyond" in str(exc):  # a number, but too large or too small to work with
+                self.fail(path, f"{name} {_shortened(shown or text)} is {str(exc).split(' is ', 1)[1]}",
+                          "numbers up to about 1.8e308 in size, and as small as 1e-999999")
+            self.fail(path, f"{name} must be a number, got {_shortened(shown or text)!r}",
                       "write digits such as 2.24e-3, 0.0224 or 2.24%")
 
     def build(self) -> Claim:
@@ -213,6 +226,11 @@ class _Builder:
                           "write 0.95 or 95%")
             interval = Interval(self.number(iv, ("interval", "low")),
                                 self.number(iv, ("interval", "high")), level)
+        for key, limit in (("parts", MAX_PARTS), ("error_budget", MAX_BUDGET_ITEMS)):
+            listed = d.get(key) or ()
+            if len(listed) > limit:
+                self.fail((key,), f"{key} lists {len(listed):,} entries; claimcheck checks at most {limit:,}",
+                          f"give at most {limit:,} {key.replace('_', ' ')} entries (combine the rest first)")
         parts = tuple(
             Part(label=str(p.get("label") or f"part {i + 1}"),
                  estimate=self.number(p, ("parts", i, "estimate")),
@@ -255,6 +273,12 @@ class _Builder:
             integer_data=bool(d.get("integer_data", False)), items=num("items"),
             tolerance=tolerance.value if tolerance is not None else DEFAULT_TOLERANCE,
         )
+
+
+def _shortened(text: str, keep: int = 40) -> str:
+    """A printed text as quoted in a message: a 400-digit number is shown by its
+    first digits and its length."""
+    return text if len(text) <= keep else f"{text[:keep]}... ({len(text):,} characters)"
 
 
 def build_claim(doc: Document) -> Claim:

@@ -17,9 +17,10 @@ def finite(text: str) -> float:
     return x
 
 
-def whole(low: int, what: str):
-    """A parser for whole numbers of at least ``low`` (``2.5e7`` is accepted);
-    ``what`` names the value in messages (argparse already names the option)."""
+def whole(low: int, what: str, most: int | None = None):
+    """A parser for whole numbers of at least ``low`` (and at most ``most``;
+    ``2.5e7`` is accepted); ``what`` names the value in messages (argparse
+    already names the option)."""
     name = f"{what} " if what else ""
 
     def parse(text: str) -> int:
@@ -31,6 +32,8 @@ def whole(low: int, what: str):
             raise argparse.ArgumentTypeError(f"{name}must be a whole number, got {text!r}")
         if x < low:
             raise argparse.ArgumentTypeError(f"{name}must be at least {low}, got {text}")
+        if most is not None and x > most:
+            raise argparse.ArgumentTypeError(f"{name}must be at most {most:,}, got {text}")
         return int(x)
     return parse
 

@@ -67,34 +67,39 @@ class Progress:
 
 
 def _inputs(path: Path) -> list:
-    if path.is_dir():
-        return [p for p in path.iterdir() if p.is_file()]
+    """The files an output must not overwrite (an unreadable folder lists none;
+    reading it says why)."""
+    from ..input_files import is_folder
+
+    if is_folder(path):
+        try:
+            return list(path.iterdir())
+        except OSError:
+            return []
     return [path]
 
 
 def run(args, stdout, stderr) -> int:
     from ..errors import OutputError
-    from ..output import refuse_overwriting_inputs, write_atomic
+    from ..output import check_targets, write_atomic
     from ..render.survey_text import render_batch_text, render_problems
     from ..survey import run_batch
+    from ..visible import visible
 
     fmt = None
-    inputs = _inputs(Path(args.table)) if Path(args.table).exists() else []
-    if args.out:
+    inputs = _inputs(Path(args.table))
+    if args.out is not None:
+        check_targets({"--out": args.out}, inputs)  # say so before the work, not after
         fmt = FORMATS.get(Path(args.out).suffix.lower())
         if fmt is None:
             raise OutputError(args.out, f"has the extension {Path(args.out).suffix or '(none)'!r}",
                               "write the table to a file ending in .csv, .json or .html")
-        refuse_overwriting_inputs(args.out, inputs)
-        folder = Path(args.out).parent
-        if not folder.is_dir():  # say so before the work, not after
-            raise OutputError(args.out, "its folder does not exist", "create the folder first")
     progress = Progress(stderr)
     try:
         result = run_batch(args.table, jobs=args.jobs, progress=progress)
     finally:
         progress.close()
-    if args.out:
+    if args.out is not None:
         if fmt == "csv":
             from ..render.survey_text import render_batch_csv
 
@@ -109,8 +114,8 @@ def run(args, stdout, stderr) -> int:
             text = render_batch_html(result.frame, result.summary)
         write_atomic(args.out, text, inputs)
     if result.problems:
-        stderr.write(render_problems(result.problems))
+        stderr.write(visible(render_problems(result.problems)))
     stdout.write(render_batch_text(result.frame, result.summary))
-    if args.out:
+    if args.out is not None:
         stdout.write(f"wrote {len(result.frame):,} rows to {args.out}\n")
     return result.exit_status

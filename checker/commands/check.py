@@ -34,34 +34,24 @@ def _ids(registry):
 def run(args, stdout, stderr) -> int:
     from ..checks import run_checks
     from ..claim import read_claim
-    from ..output import refuse_overwriting_inputs, write_atomic
+    from ..output import check_targets, write_all_atomic
     from ..render.text import render_text, render_verdict_line
 
-    from pathlib import Path
-
-    from ..errors import OutputError
-
-    for out in (args.markdown, args.html):
-        if out:
-            refuse_overwriting_inputs(out, [args.file])
-            if not Path(out).parent.is_dir():  # say so before writing the other report
-                raise OutputError(out, "its folder does not exist", "create the folder first")
-            if Path(out).is_dir():
-                raise OutputError(out, "is a directory", "give a file name for the report")
+    # Every output is checked before the work, and every report is rendered
+    # before any is written; then all are written or none.
+    check_targets({"--markdown": args.markdown, "--html": args.html}, [args.file])
     claim = read_claim(args.file)
     report = run_checks(claim, args.only)
-    # Every report is rendered before any is written, so that a failure leaves no file behind.
     written = []
-    if args.markdown:
+    if args.markdown is not None:
         from ..render.markdown import render_markdown
 
         written.append((args.markdown, render_markdown(report, claim)))
-    if args.html:
+    if args.html is not None:
         from ..render.html import render_html
 
         written.append((args.html, render_html(report, claim)))
-    for out, text in written:
-        write_atomic(out, text, [args.file])
+    write_all_atomic(written, [args.file])
     if args.json:
         from ..render.json import render_json
 

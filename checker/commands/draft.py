@@ -39,18 +39,11 @@ def _read(path: str) -> tuple[str, str]:
         raw = stream.read(MAX_TEXT_BYTES + 1) if stream is not None else sys.stdin.read(MAX_TEXT_BYTES + 1)
         name = STDIN
     else:
-        p = Path(path)
+        from ..input_files import read_limited
+
         name = path
-        if not p.exists():
-            raise InputFileError(name, "no such file", "give a text file, or - for standard input")
-        if p.is_dir():
-            raise InputFileError(name, "is a directory", "give a text file, or - for standard input")
-        try:
-            with open(p, "rb") as handle:  # read-only, always
-                raw = handle.read(MAX_TEXT_BYTES + 1)
-        except OSError as exc:
-            raise InputFileError(name, f"cannot be read ({exc.strerror or exc})",
-                                 "check the path and its permissions") from None
+        # Read-only, a regular file only (a FIFO or /dev/zero is refused in one line).
+        raw = read_limited(path, MAX_TEXT_BYTES, "give a text file, or - for standard input")
     if isinstance(raw, str):
         raw = raw.encode("utf-8", "surrogateescape")
     if len(raw) > MAX_TEXT_BYTES:
@@ -72,19 +65,17 @@ def _read(path: str) -> tuple[str, str]:
 
 def run(args, stdout, stderr) -> int:
     from ..errors import OutputError
-    from ..output import refuse_overwriting_inputs, write_atomic
+    from ..output import check_targets, write_atomic
 
     inputs = [] if args.file == "-" else [args.file]
-    if args.out:
-        refuse_overwriting_inputs(args.out, inputs)
+    if args.out is not None:
+        check_targets({"--out": args.out}, inputs)
         suffix = Path(args.out).suffix.lower()
         wanted = (".csv",) if args.table else (".yaml", ".yml")
         if suffix not in wanted:
             raise OutputError(args.out, f"has the extension {suffix or '(none)'!r}",
                               f"write the {'batch table' if args.table else 'claim'} to a file ending in "
                               f"{' or '.join(wanted)}")
-        if not Path(args.out).parent.is_dir():
-            raise OutputError(args.out, "its folder does not exist", "create the folder first")
     text, name = _read(args.file)
     if args.table:
         return _run_table(args, text, name, inputs, stdout, stderr)

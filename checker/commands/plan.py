@@ -134,16 +134,24 @@ def _as_dict(args, plan, count_name, at) -> dict:
         "target_sigma": plan.target_sigma,
         "power": plan.power,
         "syst": plan.syst,
-        count_name: plan.count,
+        count_name: _json_count(plan.count),
         "reachable": plan.reachable,
         "best_sigma": plan.best_sigma if math.isfinite(plan.best_sigma) else None,
         "reason": plan.reason or None,
         "per_sample_variance": plan.variance,
-        "at": at,
-        "table": [{count_name: r.count, "standard_error": r.standard_error, "expected_sigma": r.expected_sigma,
+        "at": {k: _json_count(v) if k == count_name else v for k, v in at.items()} if at else at,
+        "table": [{count_name: _json_count(r.count), "standard_error": r.standard_error, "expected_sigma": r.expected_sigma,
                    "pass_probability": r.pass_probability, "smallest_detectable": r.smallest_detectable}
                   for r in plan.table],
     }
+
+
+def _json_count(n):
+    """A count as JSON: whole while its digits are true, else the double it is
+    (1e300, not 301 digits of which 285 are noise)."""
+    if isinstance(n, int) and abs(n) >= wording.EXACT_COUNT_DIGITS:
+        return float(n)
+    return n
 
 
 def _g(x, digits: int = 4) -> str:
@@ -155,7 +163,7 @@ def _as_text(args, plan, count_name, at) -> str:
              f"{_g(plan.target_sigma)} sigma with power {_g(plan.power)}, {syst}"]
     if plan.reachable:
         row = next(r for r in plan.table if r.count == plan.count)
-        lines.append(f"  {count_name} needed: {plan.count:,} (standard error {_g(row.standard_error, 3)}, "
+        lines.append(f"  {count_name} needed: {wording.count(plan.count)} (standard error {_g(row.standard_error, 3)}, "
                      f"expected {_g(row.expected_sigma, 3)} sigma, passes in {100 * row.pass_probability:.1f}% "
                      "of such experiments)")
         if plan.syst:
@@ -165,13 +173,13 @@ def _as_text(args, plan, count_name, at) -> str:
         if plan.syst and math.isfinite(plan.best_sigma):
             lines.append(f"  best achievable sigma: {_g(plan.best_sigma, 3)} (with unlimited {count_name})")
     if at is not None:
-        lines.append(f"  with {at[count_name]:,} {count_name}: the smallest value reaching "
+        lines.append(f"  with {wording.count(at[count_name])} {count_name}: the smallest value reaching "
                      f"{_g(plan.target_sigma)} sigma with power {_g(plan.power)} is "
                      f"{_g(at['smallest_detectable'], 5)}; the expected value passes with probability "
                      f"{_g(at['pass_probability'], 3)}")
     lines += ["", f"  {count_name:>12}  {'std error':>10}  {'expected sigma':>14}  {'P(pass)':>8}  smallest detectable"]
     for r in plan.table:
-        lines.append(f"  {r.count:>12,}  {_g(r.standard_error, 3):>10}  {_g(r.expected_sigma, 3):>14}  "
+        lines.append(f"  {wording.count(r.count):>12}  {_g(r.standard_error, 3):>10}  {_g(r.expected_sigma, 3):>14}  "
                      f"{_g(r.pass_probability, 3):>8}  {_g(r.smallest_detectable, 5)}")
     lines += ["", f"The estimate is taken to scatter by sqrt(v/N), v = {_g(plan.variance)} the {args.metric} "
               "per-sample variance at the expected value; P(pass) is the chance that (estimate - threshold) / "

@@ -16,6 +16,9 @@ DESCRIPTION = (HELP + ". DATA is CSV, NPY, NPZ or Parquet with one row per sampl
 METRICS = ("linear-xeb", "log-xeb", "heavy-output")
 DEFAULT_REPLICATES = 10_000
 DEFAULT_FIT_SAMPLE = 100_000
+# Limits (README, "Limits"): replicates, and rows kept for the goodness-of-fit tests.
+MAX_REPLICATES = 1_000_000
+MAX_FIT_SAMPLE = 10_000_000
 
 
 def add_parser(sub) -> None:
@@ -24,14 +27,14 @@ def add_parser(sub) -> None:
     p.add_argument("--claim", metavar="CLAIM", help="claim file whose printed numbers to hold against the data")
     p.add_argument("--metric", choices=METRICS, help="headline metric (default: the claim's)")
     p.add_argument("--qubits", type=_whole(1, "qubits"), metavar="N", help="qubits; D = 2**N (default: the claim's)")
-    p.add_argument("--bootstrap", type=_whole(0, "bootstrap"), default=DEFAULT_REPLICATES, metavar="B",
-                   help=f"bootstrap replicates, 0 for none (default {DEFAULT_REPLICATES:,})")
+    p.add_argument("--bootstrap", type=_whole(0, "bootstrap", MAX_REPLICATES), default=DEFAULT_REPLICATES, metavar="B",
+                   help=f"bootstrap replicates, 0 for none (default {DEFAULT_REPLICATES:,}, at most {MAX_REPLICATES:,})")
     p.add_argument("--seed", type=_whole(0, "seed"), default=0, metavar="S",
                    help="seed of the subsample and the bootstrap (default 0)")
     p.add_argument("--level", type=_level, default=0.95, help="bootstrap interval level (default 0.95)")
     p.add_argument("--threshold", type=_finite, metavar="F",
                    help="also test the fit at this fidelity (default: the claim's threshold)")
-    p.add_argument("--fit-sample", type=_whole(2, "fit-sample"), default=DEFAULT_FIT_SAMPLE, metavar="K",
+    p.add_argument("--fit-sample", type=_whole(2, "fit-sample", MAX_FIT_SAMPLE), default=DEFAULT_FIT_SAMPLE, metavar="K",
                    help=f"rows kept at random for the goodness-of-fit tests (default {DEFAULT_FIT_SAMPLE:,})")
     p.add_argument("--estimate-only", action="store_true",
                    help="only the estimates and their errors (no fits, tests or bootstrap): the fastest pass")
@@ -44,14 +47,13 @@ def run(args, stdout, stderr) -> int:
     from dataclasses import replace
 
     from ..errors import DataError
-    from ..output import refuse_overwriting_inputs, write_atomic
+    from ..output import check_targets, write_all_atomic
     from ..raw.analysis import analyse
     from ..render.raw_text import render_raw_text
 
     inputs = [args.data] + ([args.claim] if args.claim else [])
-    for out in (args.html, args.markdown):
-        if out:  # refused before the (possibly long) pass over the data
-            refuse_overwriting_inputs(out, inputs)
+    # Refused before the (possibly long) pass over the data.
+    check_targets({"--html": args.html, "--markdown": args.markdown}, inputs)
     claim = None
     if args.claim:
         from ..claim import read_claim
@@ -84,14 +86,16 @@ def run(args, stdout, stderr) -> int:
         from ..report import Report
 
         report = Report(title=claim.title, file=args.claim, findings=result.findings)
-    if args.html:
+    written = []
+    if args.html is not None:
         from ..render.raw_html import render_raw_html
 
-        write_atomic(args.html, render_raw_html(result, report), inputs)
-    if args.markdown:
+        written.append((args.html, render_raw_html(result, report)))
+    if args.markdown is not None:
         from ..render.raw_markdown import render_raw_markdown
 
-        write_atomic(args.markdown, render_raw_markdown(result, report), inputs)
+        written.append((args.markdown, render_raw_markdown(result, report)))
+    write_all_atomic(written, inputs)
     if args.json:
         from ..render.json import dumps
 

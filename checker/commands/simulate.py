@@ -12,7 +12,14 @@ DESCRIPTION = (HELP + ". Ideal probabilities come from Porter-Thomas statistics 
                "run on claimcheck's own state-vector simulator; outcomes are sampled from F p + (1 - F)/D. "
                "The data are simulated; say so wherever they are shown.")
 MODELS = ("porter-thomas", "circuit")
+# Limits (README, "Limits"), so that every run ends within about a minute and a
+# few hundred megabytes: rows written, circuits, layers, and the simulator's work.
 MAX_ROWS = 10_000_000
+MAX_CIRCUITS = 100_000
+MAX_DEPTH = 1_000
+# Amplitude updates: circuits x 2**qubits for Porter-Thomas (up to 20 qubits, where
+# every probability is drawn) and circuits x depth x qubits x 2**qubits for circuits.
+MAX_WORK = {"porter-thomas": 2_000_000_000, "circuit": 5_000_000_000}
 
 
 def _fidelity(text: str) -> float:
@@ -37,18 +44,20 @@ def add_parser(sub) -> None:
     p.add_argument("--model", choices=MODELS, default="porter-thomas",
                    help="where the ideal probabilities come from (default porter-thomas)")
     p.add_argument("--depth", type=_whole(1, "depth"), metavar="L",
-                   help="layers per circuit for --model circuit (default 4 N + 4)")
+                   help=f"layers per circuit for --model circuit (default 4 N + 4, at most {MAX_DEPTH:,})")
 
 
 def run(args, stdout, stderr) -> int:
     import numpy as np
 
     from ..errors import DataError
-    from ..output import write_atomic
-    from ..raw.simulate_circuits import MAX_CIRCUIT_QUBITS, MAX_QUBITS, simulate_dataset
+    from ..output import check_targets, write_atomic
+    from ..raw.simulate_circuits import (FULL_DISTRIBUTION_QUBITS, MAX_CIRCUIT_QUBITS, MAX_QUBITS, default_depth,
+                                         simulate_dataset)
     from ..raw.writers import dataset_bytes, format_of
 
     fmt = format_of(args.out)
+    check_targets({"--out": args.out})
     limit = MAX_CIRCUIT_QUBITS if args.model == "circuit" else MAX_QUBITS
     if args.qubits > limit:
         raise DataError(args.out, f"the {args.model} model takes at most {limit} qubits, got {args.qubits}",
@@ -60,6 +69,21 @@ def run(args, stdout, stderr) -> int:
     if rows > MAX_ROWS:
         raise DataError(args.out, f"{rows:,} rows asked for; simulate writes at most {MAX_ROWS:,}",
                         "use fewer circuits or samples", path="samples")
+    if args.circuits > MAX_CIRCUITS:
+        raise DataError(args.out, f"{args.circuits:,} circuits asked for; simulate makes at most {MAX_CIRCUITS:,}",
+                        "use fewer circuits (and more samples each)", path="circuits")
+    if args.depth is not None and args.depth > MAX_DEPTH:
+        raise DataError(args.out, f"depth {args.depth:,} asked for; circuits have at most {MAX_DEPTH:,} layers",
+                        "use fewer layers", path="depth")
+    depth = (args.depth or default_depth(args.qubits)) if args.model == "circuit" else 1
+    work = args.circuits * 2 ** min(args.qubits, FULL_DISTRIBUTION_QUBITS) * (
+        depth * args.qubits if args.model == "circuit" else 1)
+    if work > MAX_WORK[args.model]:
+        what = ("circuits x depth x qubits x 2**qubits" if args.model == "circuit" else "circuits x 2**qubits")
+        raise DataError(args.out, f"{what} is {work:.3g}, more than the {MAX_WORK[args.model]:.0e} amplitude "
+                        "updates simulate does in one run (about a minute)",
+                        "use fewer circuits, qubits" + (" or layers" if args.model == "circuit" else ""),
+                        path="circuits")
     rng = np.random.default_rng(args.seed)
     data = simulate_dataset(args.qubits, args.circuits, args.samples, args.fidelity, rng, args.model, args.depth)
     write_atomic(args.out, dataset_bytes(data, fmt, args.out))

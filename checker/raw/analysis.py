@@ -23,6 +23,8 @@ DEFAULT_REPLICATES = 10_000
 DEFAULT_FIT_SAMPLE = 100_000
 # D^2 must stay finite in double precision for the sums of squares of x = D p.
 MAX_QUBITS = 500
+# Circuits drawn over all replicates of the cluster bootstrap (its cost; README, "Limits").
+MAX_BOOTSTRAP_DRAWS = 1_000_000_000
 
 
 def analyse(path: str, metric: str, qubits: int, *, bootstrap: int = DEFAULT_REPLICATES, seed: int = 0,
@@ -117,6 +119,11 @@ def analyse(path: str, metric: str, qubits: int, *, bootstrap: int = DEFAULT_REP
         if fitted < 0.0 or fitted > 1.0:
             notes.append(f"The maximum-likelihood fidelity {fitted:.4g} lies outside [0, 1]; the tests at the "
                          "fitted fidelity use it clipped to [0, 1].")
+        if bootstrap > 0 and sums.circuits >= 2 and sums.circuits * bootstrap > MAX_BOOTSTRAP_DRAWS:
+            most = MAX_BOOTSTRAP_DRAWS // sums.circuits
+            raise DataError(path, f"the cluster bootstrap of {sums.circuits:,} circuits x {bootstrap:,} replicates "
+                            f"draws more than {MAX_BOOTSTRAP_DRAWS:,} circuits",
+                            f"give --bootstrap {most:,} or fewer (or --bootstrap 0)", path="bootstrap")
         if bootstrap > 0:
             summary = _bootstrap(metric, sums, combined, bootstrap, boot_rng, level, seed)
             if summary.resampling == "binned":

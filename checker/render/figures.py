@@ -22,6 +22,7 @@ from html import escape
 from typing import Iterator, Mapping, Sequence
 
 from .. import wording
+from ..visible import visible
 
 # Our palette: dark ink on warm paper, one deep blue accent and one ochre; every
 # series also differs by marker, line style or hatching so greyscale prints read.
@@ -63,9 +64,11 @@ _RC = {
 
 
 def _plain(text: object) -> str:
-    """A user-supplied label on one line (matplotlib's math parsing is switched
-    off wherever one is drawn, so "$" stays a dollar sign)."""
-    return " ".join(str(text).split())
+    """A user-supplied label on one line with its control characters shown as
+    escapes (checker.visible; a lone surrogate cannot even be drawn), and
+    matplotlib's math parsing switched off wherever one is drawn, so "$" stays
+    a dollar sign."""
+    return " ".join(visible(text).split())
 
 
 _fmt = wording.num

@@ -8,6 +8,7 @@ from dataclasses import asdict
 from typing import Any
 
 from ..report import Finding, Report
+from ..visible import json_safe
 
 
 def clean(value: Any) -> Any:
@@ -52,8 +53,10 @@ def report_to_dict(report: Report) -> dict:
 
 
 def dumps(obj: Any) -> str:
-    """JSON text with a trailing newline; raises if a non-finite number slipped through."""
-    return json.dumps(clean(obj), indent=2, allow_nan=False, ensure_ascii=False) + "\n"
+    """JSON text with a trailing newline; raises if a non-finite number slipped through.
+    Control characters, bidirectional overrides and lone surrogates in strings
+    are written as \\u escapes (json_safe), so the text is safe on a terminal."""
+    return json_safe(json.dumps(clean(obj), indent=2, allow_nan=False, ensure_ascii=False)) + "\n"
 
 
 def render_json(report: Report) -> str:

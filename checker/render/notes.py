@@ -14,6 +14,7 @@ from dataclasses import dataclass
 from typing import Any, Iterable, Iterator, Mapping
 
 from .. import wording
+from ..visible import visible
 from ..claim.model import Claim, Reported
 from ..report import Finding, Report
 
@@ -97,8 +98,9 @@ def is_plain_number(text: str) -> bool:
 
 
 def one_line(text: Any) -> str:
-    """A user-supplied string on one line (titles and labels may hold newlines)."""
-    return " ".join(str(text).split())
+    """A user-supplied string on one line (titles and labels may hold newlines),
+    with its control characters shown as escapes (checker.visible)."""
+    return " ".join(visible(text).split())
 
 
 # --- the claim's printed numbers ---------------------------------------------

@@ -7,6 +7,8 @@ from __future__ import annotations
 import math
 from html import escape
 
+from .html import CSP
+
 from .survey_text import CAUTION, _plural, frame_records
 
 _COLUMNS = (
@@ -67,6 +69,7 @@ def render_batch_html(frame, summary: dict) -> str:
     title = f"claimcheck batch: {summary['table']}"
     return (
         "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
+        f'<meta http-equiv="Content-Security-Policy" content="{CSP}">\n'  # the claim reports' policy
         f"<title>{escape(title)}</title>\n<style>{_STYLE}</style>\n</head>\n<body>\n"
         f"<h1>{escape(title)}</h1>\n"
         + "".join(f"<p>{escape(f)}</p>\n" for f in facts)

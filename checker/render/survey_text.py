@@ -4,6 +4,7 @@ summary frame and counts; the statistics were computed before."""
 from __future__ import annotations
 
 import math
+import re
 
 from .json import dumps
 
@@ -84,11 +85,25 @@ def render_batch_json(frame, summary: dict) -> str:
 
 def _csv_texts(series) -> list[str]:
     """One column's cells: floats as their shortest round-trip text, missing
-    values (NaN, NA) as empty cells."""
+    values (NaN, NA) as empty cells, text cells neutralised for spreadsheets."""
     values = series.astype(object).tolist()
     if series.dtype.kind == "f":
         return [repr(v) if v == v else "" for v in values]
-    return ["" if v is None or type(v).__name__ == "NAType" else str(v) for v in values]
+    return [inert_cell("" if v is None or type(v).__name__ == "NAType" else str(v)) for v in values]
+
+
+_FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")
+_PLAIN_NUMBER = re.compile(r"[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?")
+
+
+def inert_cell(text: str) -> str:
+    """A text cell a spreadsheet will not run: one that starts with = + - @, a
+    tab or a carriage return (the starts of a formula) gets a leading
+    apostrophe, the usual neutralisation (OWASP, "CSV Injection"); a cell that
+    is a plain number ("-3.2", a printed sigma) stays as written."""
+    if text.startswith(_FORMULA_STARTS) and not _PLAIN_NUMBER.fullmatch(text):
+        return "'" + text
+    return text
 
 
 def render_batch_csv(frame) -> str:

@@ -4,6 +4,7 @@ the verdict."""
 from __future__ import annotations
 
 from ..report import Report
+from ..visible import visible
 
 MARKS = {"pass": "  ok ", "warn": " note", "fail": "FLAG ", "skip": "  -- "}
 VERDICT_WORDS = {
@@ -27,7 +28,7 @@ def render_text(report: Report) -> str:
     lines += ["", f"verdict: {VERDICT_WORDS[report.verdict]} ({tally})"]
     if report.verdict == "inconsistent" or counts["warn"]:
         lines.append(CAUTION)
-    return "\n".join(lines) + "\n"
+    return visible("\n".join(lines) + "\n")  # a title or label cannot drive the terminal
 
 
 def render_verdict_line(report: Report) -> str:

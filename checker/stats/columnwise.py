@@ -47,10 +47,14 @@ class SignificanceColumns:
 
 def error_from_interval(low, high, level) -> np.ndarray:
     """Standard error implied by symmetric intervals: (high - low) / (2 z_level),
-    z_level = Phi^-1(1/2 + level/2) (1.96 for 0.95)."""
+    z_level = Phi^-1(1/2 + level/2) (1.96 for 0.95), computed as
+    stats.interval.z_for_level does, without cancellation at levels near 0 or 1."""
+    from scipy.special import erfinv
+
     low, high, level = (np.asarray(a, dtype=float) for a in (low, high, level))
-    with np.errstate(invalid="ignore"):
-        return (high - low) / (2.0 * ndtri(0.5 + level / 2.0))
+    with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
+        z = np.where(level >= 0.5, -ndtri((1.0 - level) / 2.0), np.sqrt(2.0) * erfinv(level))
+        return (high - low) / (2.0 * z)
 
 
 def significance_columns(estimate, threshold, stat_error, syst_error, two_sided) -> SignificanceColumns:

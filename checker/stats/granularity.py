@@ -20,6 +20,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from fractions import Fraction
 
 
 @dataclass(frozen=True)
@@ -67,22 +68,25 @@ def granularity(low: float, high: float, units: int, lowest: int | None = None,
 
     Notes
     -----
-    Each candidate is tested by the division k/units itself, never by
-    multiplying the bounds by ``units``: low * units can land a hair above a
-    whole number (0.345 * 200 = 69.00000000000001) and lose the k that sits
-    exactly on the edge of the printed interval.
+    A count k fits when the division k/units, as a double, lies inside
+    [low, high]: never by multiplying the bounds by ``units`` in floating
+    point, where low * units can land a hair above a whole number
+    (0.345 * 200 = 69.00000000000001) and lose the k that sits exactly on the
+    edge of the printed interval.  The candidates come from exact rational
+    arithmetic (the bounds as fractions times ``units``), so the cost does not
+    grow with the counts and no count is too large: a unit-step search from
+    a float product never ends where the float spacing exceeds 1, and a
+    product beyond the double range overflows.
     """
-    if units < 1 or int(units) != units:
+    if int(units) != units or units < 1:
         raise ValueError(f"units must be a whole number of at least 1, got {units}")
+    if not (math.isfinite(low) and math.isfinite(high)):
+        raise ValueError("low and high must be finite")
     if low > high:
         raise ValueError("low must not exceed high")
     units = int(units)
-    first = math.floor(low * units) - 1  # a step below the first candidate
-    while first / units < low:
-        first += 1
-    last = math.ceil(high * units) + 1  # a step above the last candidate
-    while last / units > high:
-        last -= 1
+    first = _edge(low, units, up=True)
+    last = _edge(high, units, up=False)
     if lowest is not None:
         first = max(first, lowest)
     if highest is not None:
@@ -94,5 +98,38 @@ def granularity(low: float, high: float, units: int, lowest: int | None = None,
         # Nearest counts on either side of the empty interval.
         below = last if lowest is None or last >= lowest else None
         above = first if highest is None or first <= highest else None
-    can_bite = 1.0 / units > (high - low)
+    can_bite = Fraction(1, units) > Fraction(high) - Fraction(low)
     return Granularity(units, bool(fits), fits, below, above, can_bite)
+
+
+# How far the double k/units may stray from the exact k/units past an edge; a
+# bound on the steps taken back from the exact edge (each step is one k).
+_ROUNDING_STEPS = 64
+
+
+def _edge(bound: float, units: int, up: bool) -> int:
+    """The least k with k/units >= bound (``up``), or the greatest k with
+    k/units <= bound, k/units taken as the double Python's division gives."""
+    exact = Fraction(bound) * units
+    if up:
+        k = math.ceil(exact)  # k/units >= bound exactly, so also once rounded
+        for _ in range(_ROUNDING_STEPS):  # a k below may round up onto the bound
+            if _ratio(k - 1, units) >= bound:
+                k -= 1
+            else:
+                break
+        return k
+    k = math.floor(exact)
+    for _ in range(_ROUNDING_STEPS):
+        if _ratio(k + 1, units) <= bound:
+            k += 1
+        else:
+            break
+    return k
+
+
+def _ratio(k: int, units: int) -> float:
+    try:
+        return k / units  # correctly rounded, whatever the sizes of k and units
+    except OverflowError:
+        return math.inf if (k > 0) == (units > 0) else -math.inf

@@ -14,7 +14,7 @@ import itertools
 import math
 import re
 from dataclasses import dataclass
-from decimal import Decimal
+from decimal import Context, Decimal
 from typing import Callable, Sequence
 
 # Plain decimal notation with an optional exponent and an optional percent
@@ -23,6 +23,13 @@ from typing import Callable, Sequence
 NUMBER_PATTERN = r"^[+-]?(0|[1-9][0-9]*)?(\.[0-9]*)?([eE][+-]?[0-9]+)?%?$"
 _NUMBER = re.compile(NUMBER_PATTERN)
 _HAS_DIGIT = re.compile(r"[0-9]")
+# Powers of ten a printed number may reach: p-values far below the double
+# range are read exactly (1000 sigma is p = 1e-217,000), but the arithmetic on
+# the printed digits needs bounded exponents.  Beyond them the text is refused.
+MAX_EXPONENT = 999_999
+# The arithmetic on printed digits: enough precision for any printed interval's
+# ends to reach a double exactly, and exponents well beyond MAX_EXPONENT.
+_CONTEXT = Context(prec=60, Emax=10 * MAX_EXPONENT, Emin=-10 * MAX_EXPONENT)
 
 
 @dataclass(frozen=True)
@@ -83,25 +90,32 @@ def parse_printed(text: str, exact: bool = False) -> Printed:
     dec = Decimal(body)
     if not dec.is_finite():
         raise ValueError(f"not a finite number: {text!r}")
-    value = float(dec) / 100.0 if percent else float(dec)
-    if not math.isfinite(value):
-        raise ValueError(f"not a finite number: {text!r}")
+    if dec and abs(dec.adjusted()) > MAX_EXPONENT:
+        raise ValueError(f"{text} is beyond the powers of ten claimcheck reads "
+                         f"(10^-{MAX_EXPONENT:,} to 10^{MAX_EXPONENT:,})")
+    c = _CONTEXT
     if percent:
-        dec /= 100
+        dec = c.divide(dec, Decimal(100))
+    value = float(dec)
+    if not math.isfinite(value):
+        raise ValueError(f"{text} is beyond the range of double precision (about 1.8e308)")
     if exact:
         log_value = _decimal_log(dec)
         return Printed(value, value, value, text, log_value, log_value)
     # Half a unit in the last printed digit, exactly in decimal.
-    half = Decimal(5).scaleb(Decimal(body).as_tuple().exponent - 1)
+    half = c.scaleb(Decimal(5), Decimal(Decimal(body).as_tuple().exponent - 1))
     if percent:
-        half /= 100
-    lo, hi = sorted((dec - half, dec + half))
-    return Printed(value, float(lo), float(hi), text, _decimal_log(lo), _decimal_log(hi))
+        half = c.divide(half, Decimal(100))
+    lo, hi = sorted((c.subtract(dec, half), c.add(dec, half)))
+    low, high = float(lo), float(hi)
+    if not (math.isfinite(low) and math.isfinite(high)):
+        raise ValueError(f"{text} is beyond the range of double precision (about 1.8e308)")
+    return Printed(value, low, high, text, _decimal_log(lo), _decimal_log(hi))
 
 
 def _decimal_log(dec: Decimal) -> float:
     if dec > 0:
-        return float(dec.ln())
+        return float(_CONTEXT.ln(dec))
     return -math.inf if dec == 0 else math.nan
 
 

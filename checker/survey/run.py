@@ -21,6 +21,7 @@ from ..checks.common import count_for_error, metric_of, model_inputs
 from ..claim import claim_from_document, read_claim
 from ..claim.model import build_claim
 from ..errors import ClaimcheckError
+from ..visible import visible
 from .columns import ColumnPlan
 from .table import Folder, Row, Table, read_source
 
@@ -208,6 +209,10 @@ def summarize(records: list, name: str, unit: str = "row"):
     from ..stats.columnwise import error_from_interval, sigma_from_log_p, significance_columns
 
     col = dict(zip(RECORD, (list(c) for c in zip(*records)))) if records else {k: [] for k in RECORD}
+    # Text from the claims and their file names is shown safely (a lone surrogate from an
+    # undecodable name or a "\ud800" escape is not even storable in a string column).
+    for key in ("source", "title", "claim_source", "problem", "sigma_printed", "p_printed"):
+        col[key] = [visible(x) for x in col[key]]
     f = {k: np.asarray(col[k], dtype=float) for k in
          ("estimate", "threshold", "stat_error", "interval_low", "interval_high", "interval_level",
           "threshold_error", "syst_error", "required_sigma")}
@@ -295,4 +300,5 @@ def run_batch(source: Any, jobs: int | None = None,
     table = read_source(source)
     records = _records(table, jobs, progress)
     frame, summary, problems = summarize(records, table.name, "row" if isinstance(table, Table) else "file")
+    problems = getattr(table, "notes", ()) + problems  # a folder's second names of one file
     return BatchResult(table.name, frame, summary, problems)

@@ -16,15 +16,21 @@ from __future__ import annotations
 import csv
 import io
 import math
-from dataclasses import dataclass
+import os
+import stat
+from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any, Iterable, Mapping, NamedTuple, Sequence
 
 from ..errors import InputFileError
+from ..input_files import open_regular, problem_of, read_limited
 
 TABLE_SUFFIXES = {".csv": ",", ".tsv": "\t", ".parquet": None, ".pq": None}
 CLAIM_SUFFIXES = (".yaml", ".yml", ".json")
-MAX_TABLE_BYTES = 2_000_000_000
+# Limits (README, "Limits"). A batch holds about 1.5 KB per claim and some 25 times a
+# table's bytes at its peak (measured), so these keep it within a few gigabytes.
+MAX_TABLE_BYTES = 250_000_000
+MAX_CLAIMS = 1_000_000
 
 
 class Row(NamedTuple):
@@ -46,8 +52,15 @@ class Table:
 
 @dataclass(frozen=True)
 class Folder:
+    """A folder of claim files.  ``files`` holds every entry with a claim
+    file's extension, once per file (two names of one file, such as a link
+    beside its target, count once); entries that are not regular files stay
+    in (but folders), so that checking them reports why they cannot be used.  ``notes`` are
+    one line per name left out as a second name of a file already listed."""
+
     name: str
     files: tuple
+    notes: tuple = field(default_factory=tuple)
 
 
 def cell_text(value: Any) -> str:
@@ -78,10 +91,15 @@ def read_source(source: Any) -> Table | Folder:
     """
     if isinstance(source, (str, Path)):
         path = Path(source)
-        if not path.exists():
-            raise InputFileError(str(source), "no such file or folder",
-                                 "give a CSV or Parquet table, or a folder of claim files")
-        if path.is_dir():
+        allowed = "give a CSV or Parquet table, or a folder of claim files"
+        try:
+            mode = os.stat(path).st_mode
+        except OSError as exc:
+            problem = "no such file or folder" if exc.errno == 2 else problem_of(exc)
+            raise InputFileError(str(source), problem, allowed) from None
+        except ValueError:
+            raise InputFileError(str(source), "is not a usable path (it holds a NUL byte)", allowed) from None
+        if stat.S_ISDIR(mode):
             return read_folder(path)
         return read_table_file(path)
     if hasattr(source, "columns") and hasattr(source, "itertuples"):
@@ -93,11 +111,34 @@ def read_source(source: Any) -> Table | Folder:
 
 
 def read_folder(path: Path) -> Folder:
-    files = tuple(sorted(str(p) for p in path.iterdir() if p.is_file() and p.suffix.lower() in CLAIM_SUFFIXES))
+    try:
+        entries = sorted(str(p) for p in path.iterdir() if p.suffix.lower() in CLAIM_SUFFIXES)
+    except OSError as exc:
+        raise InputFileError(str(path), f"its entries cannot be listed ({problem_of(exc)})",
+                             "give a folder you may read") from None
+    files, notes, seen = [], [], {}
+    # Real files first, so that a link is the name left out rather than its target.
+    for name in sorted(entries, key=lambda n: (os.path.islink(n), n)):
+        try:
+            info = os.stat(name)
+        except OSError:
+            files.append(name)  # a dangling link or a loop: checking it says which
+            continue
+        if stat.S_ISDIR(info.st_mode):
+            continue  # a folder named like a claim file is not one
+        key = (info.st_dev, info.st_ino)
+        if stat.S_ISREG(info.st_mode) and key in seen:
+            notes.append(f"{name}: is another name of {seen[key]}; that file is checked once")
+            continue
+        seen[key] = name
+        files.append(name)
+    if len(files) > MAX_CLAIMS:
+        raise InputFileError(str(path), f"holds {len(files):,} claim files, more than {MAX_CLAIMS:,}",
+                             "split the folder")
     if not files:
         raise InputFileError(str(path), "holds no claim files",
                              "a folder for batch holds .yaml, .yml or .json claim files")
-    return Folder(str(path), files)
+    return Folder(str(path), tuple(sorted(files)), tuple(notes))
 
 
 def read_table_file(path: Path) -> Table:
@@ -107,12 +148,7 @@ def read_table_file(path: Path) -> Table:
                              "a table for batch ends in .csv, .tsv, .parquet or .pq (or give a folder)")
     if TABLE_SUFFIXES[suffix] is None:
         return _read_parquet(path)
-    try:
-        with open(path, "rb") as handle:  # read-only, always
-            raw = handle.read(MAX_TABLE_BYTES + 1)
-    except OSError as exc:
-        raise InputFileError(str(path), f"cannot be read ({exc.strerror or exc})",
-                             "check the path and its permissions") from None
+    raw = read_limited(path, MAX_TABLE_BYTES, "give a CSV or Parquet table, or a folder of claim files")
     if len(raw) > MAX_TABLE_BYTES:
         raise InputFileError(str(path), f"is larger than {MAX_TABLE_BYTES:,} bytes", "split the table")
     if b"\x00" in raw:
@@ -164,6 +200,9 @@ def parse_delimited(text: str, name: str, delimiter: str = ",") -> Table:
             if not cells or all(not c.strip() for c in cells):
                 continue  # a blank line is not a claim
             number += 1
+            if number > MAX_CLAIMS:
+                raise InputFileError(name, f"holds more than {MAX_CLAIMS:,} claims", "split the table",
+                                     line=line)
             rows.append(Row(number, line, tuple(cells)))
     except csv.Error as exc:
         raise InputFileError(name, f"is not a well-formed table ({exc})",
@@ -174,20 +213,34 @@ def parse_delimited(text: str, name: str, delimiter: str = ",") -> Table:
 
 
 def _read_parquet(path: Path) -> Table:
+    handle = open_regular(path, "give a CSV or Parquet table, or a folder of claim files")
     try:
+        if os.fstat(handle.fileno()).st_size > MAX_TABLE_BYTES:
+            raise InputFileError(str(path), f"is larger than {MAX_TABLE_BYTES:,} bytes", "split the table")
         import pandas as pd
+        import pyarrow.parquet as pq
 
-        frame = pd.read_parquet(path)
+        rows = pq.ParquetFile(handle).metadata.num_rows  # counted before anything is decompressed
+        if rows > MAX_CLAIMS:
+            raise InputFileError(str(path), f"holds {rows:,} claims, more than {MAX_CLAIMS:,}", "split the table")
+        handle.seek(0)
+        frame = pd.read_parquet(handle)
+    except InputFileError:
+        raise
     except ImportError:
         raise InputFileError(str(path), "is a Parquet file, and reading one needs pyarrow",
                              "pip install pyarrow (or save the table as CSV)") from None
     except Exception as exc:  # pyarrow raises its own many kinds
         raise InputFileError(str(path), f"cannot be read as Parquet ({type(exc).__name__}: {exc})",
                              "check that the file is a Parquet table") from None
+    finally:
+        handle.close()
     return table_from_frame(frame, str(path))
 
 
 def table_from_frame(frame, name: str) -> Table:
+    if len(frame) > MAX_CLAIMS:
+        raise InputFileError(name, f"holds {len(frame):,} claims, more than {MAX_CLAIMS:,}", "split the table")
     header = tuple(str(c) for c in frame.columns)
     rows = tuple(Row(i + 1, None, tuple(cell_text(v) for v in values))
                  for i, values in enumerate(frame.itertuples(index=False, name=None)))

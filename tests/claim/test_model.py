@@ -135,10 +135,16 @@ def test_the_notebook_api_takes_a_mapping_with_numpy_numbers():
                        "counts are whole numbers such as 30 or 2.5e7"),
     ("circuits: 1.5e0", "circuits (line 4): circuits must be a whole number of at least 1, got 1.5e0"),
     ("trials: '0'", "trials (line 4): trials must be a whole number of at least 1, got 0"),
-    ("samples: 50%", "samples must be a whole number of at least 1, got 50%"),
+    ("samples: 50%", "samples is a count, so the percentage 50% means nothing"),
+    ("samples: 3000%", "samples is a count, so the percentage 3000% means nothing"),
+    ("qubits: '3000%'", "qubits is a count, so the percentage 3000% means nothing"),
+    ("trials: 50%", "trials is a count, so the percentage 50% means nothing"),
+    ("significance: {sigma: 420%}", "sigma is a significance in sigma, so the percentage 420% means nothing"),
     ("qubits: 5000", "qubits (line 4): qubits must be at most 1000, got 5000"),
     ("interval: {low: 0.8, high: 0.95, level: 95}", "interval.level (line 4): level must lie between 0 and 1, got 95"),
-    ("stat_error: '1e400'", "stat_error (line 4): stat_error must be a number, got '1e400'"),
+    ("stat_error: '1e400'", "stat_error (line 4): stat_error 1e400 is beyond the range of double precision"),
+    ("stat_error: 1e-2000100", "stat_error (line 4): stat_error 1e-2000100 is beyond the powers of ten claimcheck reads"),
+    ("significance: {p_value: 1e-2000100}", "p_value 1e-2000100 is beyond the powers of ten claimcheck reads"),
     ("significance: {p_value: '< .'}", "significance.p_value (line 4): p_value must be a number, got '< .'"),
 ])
 def test_what_the_schema_cannot_say(write_claim, field_text, message):

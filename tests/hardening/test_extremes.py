@@ -7,6 +7,7 @@ makes, and no NaN or Infinity may reach any JSON output.
 
 from __future__ import annotations
 
+import datetime
 import io
 import json
 import math
@@ -21,6 +22,9 @@ from checker.stats.multiplicity import log_bonferroni, log_gross_vitells, log_si
 from checker.stats.systematics import log_p_marginalized, log_p_quadrature
 from checker.stats.tails import log_p_from_sigma, sigma_from_log_p
 
+# Per example: generous for a loaded machine, finite so that a slow path shows (tests/conftest.py).
+DEADLINE = datetime.timedelta(seconds=20)
+
 SIGMAS = st.floats(min_value=0.01, max_value=1000.0)
 LOG_P = st.floats(min_value=math.log(1e-300), max_value=math.log(0.5))
 FAR_LOG_P = st.floats(min_value=-1e12, max_value=-700.0)
@@ -30,21 +34,21 @@ def _refuse(token):
     raise AssertionError(f"{token} in JSON output")
 
 
-@settings(max_examples=300, deadline=None)
+@settings(max_examples=300, deadline=DEADLINE)
 @given(SIGMAS, st.sampled_from(["one", "two"]))
 def test_sigma_round_trips(z, sided):
     back = sigma_from_log_p(log_p_from_sigma(z, sided), sided)
     assert math.isclose(back, z, rel_tol=1e-9)
 
 
-@settings(max_examples=300, deadline=None)
+@settings(max_examples=300, deadline=DEADLINE)
 @given(st.one_of(LOG_P, FAR_LOG_P), st.sampled_from(["one", "two"]))
 def test_log_p_round_trips(log_p, sided):
     back = log_p_from_sigma(sigma_from_log_p(log_p, sided), sided)
     assert math.isclose(back, log_p, rel_tol=1e-9)
 
 
-@settings(max_examples=200, deadline=None)
+@settings(max_examples=200, deadline=DEADLINE)
 @given(st.floats(min_value=1.0, max_value=1000.0), st.integers(min_value=1, max_value=10**6))
 def test_corrections_stay_finite_and_ordered_in_the_far_tail(z, trials):
     lp = log_p_from_sigma(z)
@@ -56,7 +60,7 @@ def test_corrections_stay_finite_and_ordered_in_the_far_tail(z, trials):
     assert math.isfinite(gv) and gv >= lp
 
 
-@settings(max_examples=60, deadline=None)
+@settings(max_examples=60, deadline=DEADLINE)
 @given(st.floats(min_value=0.5, max_value=40.0), st.floats(min_value=0.05, max_value=3.0))
 def test_marginalized_matches_quadrature_in_the_tail(z_total, ratio):
     # Cousins and Highland (1992): for a Gaussian null the averaged p equals the
@@ -84,7 +88,7 @@ def _claim(tmp_path, z, digits=12, samples="1000000000000", **extra):
     return path
 
 
-@settings(max_examples=40, deadline=None)
+@settings(max_examples=40, deadline=DEADLINE)
 @given(st.floats(min_value=1.0, max_value=1000.0))
 def test_extreme_claims_agree_with_themselves_and_give_finite_json(tmp_path_factory, z):
     path = _claim(tmp_path_factory.mktemp("tail"), z)

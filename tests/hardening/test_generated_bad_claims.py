@@ -7,6 +7,7 @@ where there is one), print no traceback, write nothing to stdout and create no r
 
 from __future__ import annotations
 
+import datetime
 import io
 import json
 
@@ -15,6 +16,9 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from checker.cli import run
+
+# Per example: generous for a loaded machine, finite so that a slow path shows (tests/conftest.py).
+DEADLINE = datetime.timedelta(seconds=20)
 
 VALID = {
     "title": "Generated claim (invented)",
@@ -112,7 +116,7 @@ def _laughs(depth: int) -> str:
     return "title: t\nmetric: mean\nestimate: 1\nsd: 1\n" + "\n".join(f"x{line}" for line in lines) + "\n"
 
 
-@settings(max_examples=1000, deadline=None, suppress_health_check=[HealthCheck.too_slow,
+@settings(max_examples=1000, deadline=DEADLINE, suppress_health_check=[HealthCheck.too_slow,
                                                                      HealthCheck.data_too_large])
 @given(structural_cases())
 def test_bad_claim_files_exit_2_with_one_line(tmp_path_factory, case):

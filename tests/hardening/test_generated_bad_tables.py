@@ -12,6 +12,7 @@ The tables here are invented; no value in them comes from a real device.
 
 from __future__ import annotations
 
+import datetime
 import io
 import json
 
@@ -24,7 +25,10 @@ from checker.claim.validate import SCHEMA_PATH
 from checker.cli import run
 from checker.survey import table as survey_table
 
-SETTINGS = dict(deadline=None, suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large,
+# Per example: generous for a loaded machine, finite so that a slow path shows (tests/conftest.py).
+DEADLINE = datetime.timedelta(seconds=20)
+
+SETTINGS = dict(deadline=DEADLINE, suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large,
                                                        HealthCheck.function_scoped_fixture])
 RAW_OPTIONS = ["--metric", "linear-xeb", "--qubits", "12", "--bootstrap", "0", "--fit-sample", "50"]
 

@@ -69,3 +69,27 @@ def test_a_rounded_true_proportion_is_always_possible(n, k, decimals):
     text = f"{k / n:.{decimals}f}"
     g = granularity(*interval(text), n, 0, n, keep=n + 1)
     assert g.possible and k in g.counts
+
+
+@pytest.mark.parametrize("low, high, units", [
+    # Where the double's spacing exceeds one step, and where units x bounds leave the double range.
+    (1e20 - 5e18, 1e20 + 5e18, 10**9), (0.45, 0.55, 10**160), (0.5, 0.5, 10**320), (-1e300, -0.9e300, 7),
+    (1.0e300, 1.0e300, 10**9),
+])
+def test_huge_values_and_counts_are_exact_and_quick(low, high, units):
+    from fractions import Fraction
+
+    g = granularity(low, high, units)
+    assert g.possible
+    for k in g.counts:
+        assert low <= k / units <= high
+    # The neighbours lie outside the interval exactly (as doubles, k/units may round onto its
+    # edge when the double's spacing is wider than one step).
+    assert Fraction(g.below, units) < Fraction(low) and Fraction(g.above, units) > Fraction(high)
+
+
+def test_a_count_exactly_representable_beyond_two_to_the_53():
+    # 2**60 + 1 items, one of them a success: 1/(2**60 + 1) prints as 8.67e-19.
+    units = 2**60 + 1
+    g = granularity(*interval("8.67e-19"), units, 0, units)
+    assert g.possible and g.counts[0] == 1
