@@ -21,6 +21,7 @@ from typing import Iterator
 
 from ..claim.model import Claim, Reported
 from ..report import Finding
+from .no_estimate import no_estimate
 from ..stats.granularity import granularity
 from .printed_like import like
 
@@ -106,6 +107,8 @@ def check(claim: Claim) -> Iterator[Finding]:
     elif claim.parts and method != "samples":
         yield Finding("skip", "Headline: a weighted combination of parts is not itself a count over whole "
                       "items (only pooling by samples is), so only parts are tested.", details={})
+    elif claim.estimate is None:
+        yield no_estimate(claim, "the headline's whole count")
     else:
         yield _one(claim, claim.estimate, claim.samples, "Headline", {}, proportion, items)
     for part in claim.parts:

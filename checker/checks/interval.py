@@ -28,6 +28,7 @@ from typing import Iterator
 
 from ..claim.model import Claim
 from ..report import Finding
+from .no_estimate import no_estimate
 from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval, proportion_intervals
 from ..stats.granularity import granularity
 from ..stats.interval import sigma_from_interval, z_for_level
@@ -203,6 +204,9 @@ def check(claim: Claim) -> Iterator[Finding]:
     iv = claim.interval
     if iv is None:
         yield Finding("skip", "No interval is printed.", details={"missing": ["interval"]})
+        return
+    if claim.estimate is None:
+        yield no_estimate(claim, "the interval's sides")
         return
     if iv.low.value > iv.high.value:
         yield Finding("skip", "The interval's ends are reversed (bounds reports it).", details={})
