@@ -5,6 +5,7 @@ A leaf module: it imports nothing of ours."""
 from __future__ import annotations
 
 import math
+import re
 
 
 def num(x: float | None, digits: int = 3) -> str:
@@ -42,3 +43,53 @@ def count(n: int | float) -> str:
     if abs(n) < EXACT_COUNT_DIGITS:
         return f"{int(n):,}"
     return num(float(n), 3)
+
+
+_MANTISSA = re.compile(r"^[+-]?(?P<int>[0-9]*)(?:\.(?P<dec>[0-9]*))?(?:[eE](?P<exp>[+-]?[0-9]+))?$")
+MAX_DECIMALS = 9
+
+
+def significant_figures(text: str) -> int:
+    """Significant figures of a printed number ("0.30e-3" -> 2, "2500" -> 4)."""
+    body = text.strip().lstrip("<").strip().rstrip("%").lower().split("e")[0]
+    digits = body.lstrip("+-").replace(".", "").lstrip("0")
+    return max(1, len(digits))
+
+
+def like(x: float | None, printed: str | None, figures: int | None = None) -> str:
+    """``x`` written the way ``printed`` was: the same notation (exponent,
+    percent) and one significant figure more (at least three), or ``figures``
+    of them, so that "printed 0.30e-3, recomputed 0.305e-3" reads at a glance.
+    Without a printed text, :func:`num` with three figures."""
+    if x is None or isinstance(x, bool) or not isinstance(x, (int, float)) or not math.isfinite(x):
+        return "n/a"
+    if printed is None:
+        return num(x, 3)
+    text = printed.strip().lstrip("<").strip()
+    percent = text.endswith("%")
+    m = _MANTISSA.match(text[:-1] if percent else text)
+    if not m:
+        return num(x, 3)
+    figures = figures or max(3, significant_figures(text) + 1)
+    exp = int(m.group("exp")) if m.group("exp") is not None else None
+    if exp is not None and abs(exp) > 300:
+        return num(x, figures)  # 10**exp itself leaves the double range
+    shown = x * 100 if percent else (x / 10.0 ** exp if exp is not None else x)
+    if not math.isfinite(shown):
+        return num(x, figures)
+    if shown == 0:
+        decimals = len(m.group("dec") or "")
+    else:
+        decimals = max(0, figures - 1 - math.floor(math.log10(abs(shown))))
+    if decimals > MAX_DECIMALS or abs(shown) >= 1e7:
+        return num(x, figures)
+    out = f"{shown:.{decimals}f}"
+    if percent:
+        return out + "%"
+    return f"{out}e{exp}" if exp is not None else out
+
+
+def like_range(low: float | None, high: float | None, printed: str | None) -> str:
+    """``a to b`` in the notation of ``printed``, one number when both ends print the same."""
+    a, b = like(low, printed), like(high, printed)
+    return a if a == b else f"{a} to {b}"

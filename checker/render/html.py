@@ -340,14 +340,15 @@ def _significance_figure(report: Report, claim: Claim) -> str | None:
     sig = claim.significance
     width, label = claim.stat_error.value, "stat_error"
     syst = claim.syst_error.value if claim.syst_error is not None else None
-    if sig.systematics in ("quadrature", "marginalized") and syst:
-        # The drawing width of the null under the stated convention; the check did the statistics.
+    if any(f.details.get("syst_in_error") for f in found) and syst:
+        # The check says the systematic error entered the significance: the null drawn is that wide.
         width, label = math.hypot(width, syst), "stat_error and syst_error in quadrature"
     recomputed = None
     for f in found:
-        d = f.details
-        if d.get("quantity") == "sigma" and _is_num(d.get("sigma_low")) and _is_num(d.get("sigma_high")):
-            recomputed = (d["sigma_low"], d["sigma_high"])
+        r = f.recomputed_range
+        if (f.statement in ("sigma_vs_inputs", "inputs_only") and r is not None and r.scale == "linear"
+                and _is_num(r.low) and _is_num(r.high)):
+            recomputed = (r.low, r.high)
             break
     printed = sig.sigma.value if sig.sigma is not None else None
     svg = significance_svg(claim.estimate.value, claim.threshold.value, width,

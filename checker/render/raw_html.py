@@ -22,7 +22,7 @@ from typing import Iterable, Sequence
 
 from ..report import Finding, Report
 from .html import _verdict_panel, figure_html, html_page, status_mark, table_html
-from .notes import CHECK_TITLES, num, one_line
+from .notes import num, one_line, title_of
 from .raw_text import AT_WORDS, METRIC_WORDS, TEST_WORDS, _visible
 
 MAX_CIRCUIT_ROWS = 500  # beyond this the table is cut; --json has them all
@@ -173,7 +173,7 @@ def _circuit_section(result) -> str:
 
 
 def _heading(f: Finding) -> str:
-    title = RAW_TITLES.get(f.check) or CHECK_TITLES.get(f.check) or f.check
+    title = RAW_TITLES.get(f.check) or title_of(f.check)
     if f.details.get("numbers") == "raw":
         title += " (with the raw data's numbers)"
     return title

@@ -13,7 +13,7 @@ from typing import Sequence
 
 from ..report import Finding, Report
 from .markdown import md
-from .notes import CAUTION, CHECK_TITLES, STATUS_WORDS, num, summary_lines
+from .notes import CAUTION, STATUS_WORDS, num, summary_lines, title_of
 from .raw_html import RAW_TITLES, _RESAMPLING_WORDS
 from .raw_text import METRIC_WORDS, TEST_WORDS, _visible
 
@@ -25,7 +25,7 @@ def _p(p) -> str:
 
 
 def _title(f: Finding) -> str:
-    title = RAW_TITLES.get(f.check) or CHECK_TITLES.get(f.check) or f.check
+    title = RAW_TITLES.get(f.check) or title_of(f.check)
     return title + (" (with the raw data's numbers)" if f.details.get("numbers") == "raw" else "")
 
 
