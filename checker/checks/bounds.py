@@ -11,7 +11,8 @@ from typing import Iterator
 
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown
-from .common import is_probability, metric_of, num
+from ..wording import num
+from .common import is_probability, metric_of
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 

@@ -19,9 +19,7 @@ from ..claim.model import Claim
 from ..report import Finding, Shown, Span
 from ..stats.budget import predict
 from ..stats.precision import gap
-from .common import num
-from ..wording import like as like_text
-from .printed_like import like
+from ..wording import like, num
 from .significance import statistical_error
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
@@ -98,9 +96,9 @@ def implied(finding: Finding) -> str | None:
     if not _is_number(d.get("predicted")):
         return None
     printed = finding.printed.text if finding.printed is not None else None
-    text = f"predicted {like_text(d['predicted'], printed)}"
+    text = f"predicted {like(d['predicted'], printed)}"
     if _is_number(d.get("predicted_sd")):
-        text += f" ± {like_text(d['predicted_sd'], printed)}"
+        text += f" ± {like(d['predicted_sd'], printed)}"
     if _is_number(d.get("ratio")):
         text += f" (measured / predicted = {num(d['ratio'], 2)})"
     return text

@@ -14,7 +14,8 @@ from typing import Iterator
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats.precision import over_box
-from .common import count_for_error, metric_of, model_inputs, num, num_range
+from ..wording import num, span_text
+from .common import count_for_error, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 WARN_RATIO = 3.0
@@ -82,7 +83,7 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
     reproduce = {count_name: round(implied_n)} if implied_n is not None else None
     about = {"field": error.path, "printed": Shown.of(error), "recomputed_range": Span(low, high),
              "tolerance": tol}
-    base = (f"{what}: printed stat_error {error.text} against {num_range((low, high))} that "
+    base = (f"{what}: printed stat_error {error.text} against {span_text((low, high))} that "
             f"{n.text} {count_name} allow under the {model.name} model")
     if samples is not None:
         facts["sampling_floor_low"], facts["sampling_floor_high"] = hard
@@ -91,7 +92,7 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
             ratio = error.value / ((hard[0] + hard[1]) / 2)
             facts["ratio"] = ratio
             implied = _count_for(v_mid, factor[0], error.value)
-            yield Finding("fail", f"{what}: printed stat_error {error.text} against {num_range(hard)} that "
+            yield Finding("fail", f"{what}: printed stat_error {error.text} against {span_text(hard)} that "
                           f"{samples.text} samples allow under the {model.name} model, even before any "
                           f"circuit-to-circuit spread: smaller than sampling alone permits ({num(ratio, 2)}x); "
                           f"it would take about {num(implied, 2)} samples.",
@@ -104,9 +105,9 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
                       details=facts, statement="below_floor", **about)
     elif error.high * (1 + tol) < low:
-        yield Finding("pass", f"{what}: printed stat_error {error.text} is below the {num_range((low, high))} "
+        yield Finding("pass", f"{what}: printed stat_error {error.text} is below the {span_text((low, high))} "
                       f"that the per-{count_name[:-1]} convention gives for {n.text} {count_name} "
-                      f"({num(ratio, 2)}x) but above the {num_range(hard)} floor of {samples.text} samples: "
+                      f"({num(ratio, 2)}x) but above the {span_text(hard)} floor of {samples.text} samples: "
                       f"consistent with many samples per {count_name[:-1]}.",
                       reported=error.value, recomputed=(low + high) / 2, details=facts,
                       statement="per_circuit_convention", **about)

@@ -22,7 +22,7 @@ from typing import Iterator
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown
 from ..stats.granularity import granularity
-from .printed_like import like
+from ..wording import like
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 SEARCH = 0.1  # how far (as a share of N) to look for a count that would make the print possible

@@ -23,7 +23,7 @@ from typing import Iterator
 from ..claim.model import Claim
 from ..report import Finding, Shown, Span
 from ..stats.precision import agrees
-from .common import num, p_text
+from ..wording import num, p_text
 from .parts_summary import METHOD_WORDS, parts_summary, printed_combination, value_text
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 

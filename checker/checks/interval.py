@@ -32,7 +32,7 @@ from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval, prop
 from ..stats.granularity import granularity
 from ..stats.interval import sigma_from_interval, z_for_level
 from ..stats.precision import agrees, gap, over_box
-from .printed_like import like
+from ..wording import like
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 # Levels a mislabelled interval is most often printed at, with their names.

@@ -22,7 +22,9 @@ from ..report import Finding, Shown, Span
 from ..stats.multiplicity import log_bonferroni, log_gross_vitells, log_sidak
 from ..stats.precision import agrees, over_box
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
-from .common import is_probability, log_bounds, num, num_range, p_range_text, p_text
+from ..vocabulary import CORRECTION_NAMES
+from ..wording import num, p_range_text, p_text, span_text
+from .common import is_probability, log_bounds
 from .significance import recompute, stated_convention
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
@@ -72,8 +74,6 @@ def _methods(claim: Claim, lp, sigma, sided):
     return out
 
 
-LABELS = {"gross-vitells": "Gross-Vitells", "sidak": "Sidak", "bonferroni": "Bonferroni",
-          "none": "no correction"}
 
 
 def _printed_global(printed, methods, primary, summary, details, tol) -> Finding:
@@ -100,14 +100,14 @@ def _printed_global(printed, methods, primary, summary, details, tol) -> Finding
     if other[0] == "none":
         tail = "the printed value is the local one, uncorrected"
     else:
-        tail = (f"the printed value is what {LABELS[other[0]]}"
+        tail = (f"the printed value is what {CORRECTION_NAMES[other[0]]}"
                 f"{' (' + other[1] + '-sided)' if other[1] != sided else ''} gives")
     return Finding("fail", f"Printed global {printed.text} sigma, but {summary}; {tail}.",
                    reproduced_by=reproduce, **common)
 
 
 def _span(bounds: tuple[float, float]) -> str:
-    return f"at least {num(bounds[0])}" if math.isinf(bounds[1]) else num_range(bounds)
+    return f"at least {num(bounds[0])}" if math.isinf(bounds[1]) else span_text(bounds)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
@@ -154,7 +154,7 @@ def check(claim: Claim) -> Iterator[Finding]:
     mid = gsigma[0] if bounded else (gsigma[0] + gsigma[1]) / 2
     p_words = f"p below {p_text(glp[1])}" if bounded else f"p = {p_range_text(glp)}"
     summary = (f"local {_span(sigma)} sigma ({origin}) with {how} is global "
-               f"{_span(gsigma)} sigma ({p_words}, {LABELS[primary[0]]}, {sided}-sided)")
+               f"{_span(gsigma)} sigma ({p_words}, {CORRECTION_NAMES[primary[0]]}, {sided}-sided)")
     if sig.global_sigma is not None:
         yield _printed_global(sig.global_sigma, methods, primary, summary, details, tol)
     if sig.required_sigma is not None:
@@ -163,7 +163,7 @@ def check(claim: Claim) -> Iterator[Finding]:
                  "printed": Shown.of(sig.required_sigma), "recomputed_range": Span(*gsigma), "tolerance": tol}
         if gsigma[1] * (1 + tol) < need:
             yield Finding("fail", f"After the look-elsewhere correction the claim reaches "
-                          f"{num_range(gsigma)} sigma, below the required {sig.required_sigma.text}: {summary}.",
+                          f"{span_text(gsigma)} sigma, below the required {sig.required_sigma.text}: {summary}.",
                           reported=need, recomputed=mid, details={**details, "required": need}, **about)
         elif gsigma[0] < need:
             words = (f"the printed bound on p shows {_span(gsigma)} sigma, which does not settle the required "

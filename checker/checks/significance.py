@@ -29,8 +29,9 @@ from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
-from .common import (convention_text, is_probability, count_for_error, finite_or_none, log_bounds, metric_of,
-                     model_inputs, num, num_range, p_range_text)
+from ..vocabulary import convention_text
+from ..wording import num, p_range_text, span_text
+from .common import is_probability, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 LN10 = math.log(10.0)
@@ -186,7 +187,7 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
     inverse = over_box(lambda lp: sigma_from_log_p(lp, sig.sided), [printed_log]) if printed_log[0] > -math.inf \
         else (sigma_from_log_p(printed_log[1], sig.sided), math.inf)
     yield Finding("fail", f"{base}, but the printed p = {p.text}, which would be "
-                  f"{num_range(inverse, 3) if math.isfinite(inverse[1]) else 'at least ' + num(inverse[0])} sigma; "
+                  f"{span_text(inverse, 3) if math.isfinite(inverse[1]) else 'at least ' + num(inverse[0])} sigma; "
                   "no sidedness reconciles them.",
                   reported=p.value, recomputed=finite_or_none(math.exp(stated[1])), details=details, **about)
 
@@ -235,8 +236,8 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     if sig.sigma is not None:
         yield _compare(f"Printed {sig.sigma.text} sigma", sig.sigma, sig.sigma.bounds, results, mine,
                        lambda r: r.sigma, lambda a, b: agrees(a, b, tol),
-                       f"{num_range(mine.sigma)} sigma",
-                       f"the {num_range(mine.sigma)} recomputed from estimate, threshold and errors",
+                       f"{span_text(mine.sigma)} sigma",
+                       f"the {span_text(mine.sigma)} recomputed from estimate, threshold and errors",
                        sigma_mid, stated, conv_words,
                        {**details, "quantity": "sigma"},
                        {"field": sig.sigma.path, "statement": "sigma_vs_inputs", "printed": Shown.of(sig.sigma),
@@ -252,7 +253,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                         "recomputed_range": _log10_span(mine.log_p), "tolerance": tol})
     if sig.sigma is None and sig.p_value is None:
         yield Finding("pass", f"No significance is printed; estimate, threshold and errors give "
-                      f"{num_range(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
+                      f"{span_text(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
                       recomputed=sigma_mid, details={**details, "quantity": "sigma"}, statement="inputs_only",
                       recomputed_range=Span(*mine.sigma), tolerance=tol)
     if sig.required_sigma is not None:
@@ -262,14 +263,14 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                  "printed": Shown.of(sig.required_sigma), "recomputed_range": Span(*mine.sigma),
                  "tolerance": tol}
         if mine.sigma[1] * (1 + tol) < need:
-            yield Finding("fail", f"Recomputed {num_range(mine.sigma)} sigma falls short of the required "
+            yield Finding("fail", f"Recomputed {span_text(mine.sigma)} sigma falls short of the required "
                           f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
         elif mine.sigma[0] < need:
-            yield Finding("warn", f"Recomputed {num_range(mine.sigma)} sigma reaches the required "
+            yield Finding("warn", f"Recomputed {span_text(mine.sigma)} sigma reaches the required "
                           f"{sig.required_sigma.text} sigma only within printed precision.",
                           reported=need, recomputed=sigma_mid, details=facts, **about)
         else:
-            yield Finding("pass", f"Recomputed {num_range(mine.sigma)} sigma clears the required "
+            yield Finding("pass", f"Recomputed {span_text(mine.sigma)} sigma clears the required "
                           f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
 
 

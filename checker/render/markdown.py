@@ -13,8 +13,8 @@ import re
 
 from ..claim.model import Claim
 from ..report import Report
-from .notes import (CAUTION, Point, STATUS_WORDS, field_words, is_plain_number, one_line, points,
-                    summary_lines, title_of)
+from ..vocabulary import CAUTION, STATUS_WORDS
+from .notes import Point, field_words, is_plain_number, one_line, points, summary_lines, title_of
 
 # CommonMark lets a backslash escape any ASCII punctuation.  Escape what could
 # start markup mid-line; leave intraword underscores ("stat_error") alone, since

@@ -13,65 +13,15 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass
-from typing import Any, Iterable, Iterator, Mapping
+from typing import Any, Iterable, Iterator
 
 from .. import wording
-from ..visible import visible
-from ..claim.model import Claim, Reported
 from ..checks import spec_for
+from ..claim.model import Claim, Reported
 from ..report import Finding, Report
-
-CAUTION = ("A flag is a question for the authors, not an accusation: claimcheck re-derives the "
-           "arithmetic of the printed numbers and the conventions stated with them; it says nothing "
-           "about the experiment behind them.")
-
-STATUS_WORDS = {"fail": "flag", "warn": "note", "pass": "agrees", "skip": "not checked"}
-
-VERDICT_LINES = {
-    "consistent": "consistent: every number checked follows from the claim's own inputs.",
-    "inconsistent": "inconsistent: some printed numbers do not follow from the claim's own inputs.",
-    "incomplete": "incomplete: the claim gives too little to check any number.",
-}
-
-_METHOD_WORDS = {
-    "equal": "with equal weights for the parts",
-    "samples": "with weights in proportion to each part's samples",
-    "inverse-variance": "with inverse-variance weights",
-    "random-effects": "with random-effects weights (DerSimonian-Laird)",
-    "paule-mandel": "with random-effects weights (Paule-Mandel)",
-    "sidak": "with the Sidak correction",
-    "bonferroni": "with the Bonferroni bound",
-    "gross-vitells": "with the Gross-Vitells correction",
-    "none": "with no correction at all",
-    "wald": "with the Wald interval",
-    "wilson": "with the Wilson interval",
-    "clopper-pearson": "with the Clopper-Pearson interval",
-    "agresti-coull": "with the Agresti-Coull interval",
-    "jeffreys": "with the Jeffreys interval",
-}
-_SYSTEMATICS_WORDS = {
-    "none": "with the systematic error left out of the significance",
-    "quadrature": "with the systematic error added in quadrature",
-    "marginalized": "with the p-value averaged over the systematic error (Cousins-Highland)",
-}
-_ERROR_AT_WORDS = {
-    "estimate": "with the standard error taken at the estimate",
-    "threshold": "with the standard error taken at the threshold (under the null)",
-}
-
-
-def num(x: Any, digits: int = 3) -> str:
-    """A number as the reports print it (see checker.wording), with counts whole."""
-    if isinstance(x, (int, float)) and not isinstance(x, bool) and math.isfinite(x) \
-            and float(x).is_integer() and abs(x) < 1e6 and x != 0:
-        return str(int(x))  # counts read better whole: 1200, not 1.2e3
-    return wording.num(float(x) if isinstance(x, int) and not isinstance(x, bool) else x, digits)
-
-
-def num_range(low: Any, high: Any, digits: int = 3) -> str:
-    a, b = num(low, digits), num(high, digits)
-    return a if a == b else f"{a} to {b}"
-
+from ..visible import visible
+from ..vocabulary import convention_words
+from ..wording import num, num_range
 
 _PLAIN_NUMBER = re.compile(r"-?[0-9.]+(e-?[0-9]+)?( to -?[0-9.]+(e-?[0-9]+)?)?")
 
@@ -113,33 +63,6 @@ def printed_numbers(claim: Claim) -> list[Reported]:
         add(item.count, item.error, item.error_sd)
     add(claim.items)
     return found
-
-
-# --- reproduced_by in words -----------------------------------------------------
-
-def convention_words(reproduced_by: Mapping[str, Any] | None) -> str | None:
-    """``{"sided": "two"}`` -> "under the two-sided convention (both tails)", a
-    phrase that reads after "computed" or "would follow"; None when there is none."""
-    if not reproduced_by:
-        return None
-    words = []
-    for key, value in reproduced_by.items():
-        if key == "sided":
-            tails = {"one": "one tail", "two": "both tails"}.get(value, "")
-            words.append(f"under the {one_line(value)}-sided convention" + (f" ({tails})" if tails else ""))
-        elif key == "systematics":
-            words.append(_SYSTEMATICS_WORDS.get(value, f"with systematics {one_line(value)}"))
-        elif key == "error_at":
-            words.append(_ERROR_AT_WORDS.get(value, f"with the error taken at the {one_line(value)}"))
-        elif key in ("method", "interval_method", "combination"):
-            words.append(_METHOD_WORDS.get(value, one_line(value)))
-        elif key in ("samples", "circuits", "count", "items"):
-            words.append(f"with about {num(value)} {key}")
-        else:
-            shown = num(value) if isinstance(value, (int, float)) and not isinstance(value, bool) \
-                else one_line(value)
-            words.append(f"with {key.replace('_', ' ')} {shown}")
-    return " and ".join(words)
 
 
 # --- the points a referee raises -------------------------------------------------

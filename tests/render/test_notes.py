@@ -7,7 +7,8 @@ import math
 
 import pytest
 
-from checker.render.notes import convention_words, make_point, num, num_range, printed_numbers, summary_lines
+from checker.render.notes import make_point, printed_numbers, summary_lines
+from checker.wording import num
 from checker.report import Finding, Report, Shown, Span
 
 from render_fixtures import four_parts_report, load, sidedness_report
@@ -19,27 +20,6 @@ from render_fixtures import four_parts_report, load, sidedness_report
 ])
 def test_num(x, text):
     assert num(x) == text
-
-
-def test_num_range_collapses_equal_ends():
-    assert num_range(5.741, 6.07) == "5.74 to 6.07"
-    assert num_range(5.5512, 5.5549) == "5.55"
-
-
-@pytest.mark.parametrize("conv, words", [
-    ({"sided": "two"}, "under the two-sided convention (both tails)"),
-    ({"systematics": "quadrature"}, "with the systematic error added in quadrature"),
-    ({"error_at": "threshold"}, "with the standard error taken at the threshold (under the null)"),
-    ({"method": "inverse-variance"}, "with inverse-variance weights"),
-    ({"method": "wilson"}, "with the Wilson interval"),
-    ({"samples": 26000000}, "with about 2.6e7 samples"),
-    ({"sided": "two", "systematics": "none"},
-     "under the two-sided convention (both tails) and with the systematic error left out of the significance"),
-    ({"unheard_of": "x"}, "with unheard of x"),
-    (None, None), ({}, None),
-])
-def test_convention_words(conv, words):
-    assert convention_words(conv) == words
 
 
 def test_printed_numbers_keep_their_text(monkeypatch):
