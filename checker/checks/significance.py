@@ -24,13 +24,21 @@ from dataclasses import dataclass
 from typing import Iterator
 
 from ..claim.model import Claim
-from ..report import Finding
+from ..report import Finding, Shown, Span
 from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
-from .common import (convention_text, is_probability, count_for_error, finite_or_none, log_bounds, metric_of,
-                     model_inputs, num, num_range, p_range_text)
+from ..vocabulary import convention_text
+from ..wording import num, p_range_text, span_text
+from .common import is_probability, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
+
+LN10 = math.log(10.0)
+
+
+def _log10_span(log_bounds_natural: tuple[float, float]) -> Span:
+    return Span(log_bounds_natural[0] / LN10, log_bounds_natural[1] / LN10, "log10")
 
 KEYS = ("sided", "systematics", "error_at")
 
@@ -164,38 +172,40 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
     details = {"sided": sig.sided, "p_from_sigma_low": math.exp(stated[0]) if stated[0] > -700 else 0.0,
                "log10_p_from_sigma": stated[1] / math.log(10), "tolerance": tol}
     base = f"Printed {sigma.text} sigma is p = {p_range_text(stated)} {sig.sided}-sided"
+    about = {"field": p.path, "statement": "sigma_vs_p", "printed": Shown.of(p),
+             "recomputed_range": _log10_span(stated), "tolerance": tol}
     if agrees_log(printed_log, stated, tol):
         yield Finding("pass", f"{base}, matching the printed p = {p.text}.",
-                      reported=p.value, recomputed=math.exp(stated[1]), details=details)
+                      reported=p.value, recomputed=math.exp(stated[1]), details=details, **about)
         return
     other = "two" if sig.sided == "one" else "one"
     if agrees_log(printed_log, implied(other), tol):
         yield Finding("fail", f"{base}, but the printed p = {p.text} is the {other}-sided value.",
                       reported=p.value, recomputed=finite_or_none(math.exp(stated[1])),
-                      reproduced_by={"sided": other}, details=details)
+                      reproduced_by={"sided": other}, details=details, **about)
         return
     inverse = over_box(lambda lp: sigma_from_log_p(lp, sig.sided), [printed_log]) if printed_log[0] > -math.inf \
         else (sigma_from_log_p(printed_log[1], sig.sided), math.inf)
     yield Finding("fail", f"{base}, but the printed p = {p.text}, which would be "
-                  f"{num_range(inverse, 3) if math.isfinite(inverse[1]) else 'at least ' + num(inverse[0])} sigma; "
+                  f"{span_text(inverse, 3) if math.isfinite(inverse[1]) else 'at least ' + num(inverse[0])} sigma; "
                   "no sidedness reconciles them.",
-                  reported=p.value, recomputed=finite_or_none(math.exp(stated[1])), details=details)
+                  reported=p.value, recomputed=finite_or_none(math.exp(stated[1])), details=details, **about)
 
 
 def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree, recomputed_words,
-             agree_words, recomputed, stated, conv_words, details) -> Finding:
+             agree_words, recomputed, stated, conv_words, details, about) -> Finding:
     """One printed quantity (sigma, or p in log space) against its recomputation
     under the stated convention; on a disagreement, the first other convention
     (fewest changes first) that reproduces the print."""
     if agree(printed_bounds, pick(mine)):
         return Finding("pass", f"{printed_words} agrees with {agree_words} ({conv_words}).",
-                       reported=printed.value, recomputed=recomputed, details=details)
+                       reported=printed.value, recomputed=recomputed, details=details, **about)
     other = next((r for r in results if r is not mine and agree(printed_bounds, pick(r))), None)
     reproduce = _differs(other.convention, stated) if other else None
     tail = f"; it would follow with {convention_text(reproduce)}" if other else "; no convention reproduces it"
     return Finding("fail", f"{printed_words}, but estimate, threshold and errors give {recomputed_words} "
                    f"({conv_words}){tail}.", reported=printed.value, recomputed=recomputed,
-                   reproduced_by=reproduce, details=details)
+                   reproduced_by=reproduce, details=details, **about)
 
 
 def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
@@ -213,47 +223,90 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         if stated["error_at"] == "threshold" and count_for_error(claim) is None:
             missing.append(metric_of(claim).count_field)
         yield Finding("skip", f"Cannot recompute the significance; needs {' and '.join(missing) or 'more inputs'}.",
-                      details={"missing": missing})
+                      details={"missing": missing}, statement="needs_inputs")
         return
     conv_words = convention_text(stated)
-    details = {"convention": stated, "stated": sorted(sig.stated), "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
+    # Whether the systematic error widened the null (the HTML picture draws it so).
+    syst_in = stated["systematics"] != "none" and claim.syst_error is not None and claim.syst_error.value > 0
+    details = {"convention": stated, "stated": sorted(sig.stated), "syst_in_error": syst_in,
+               "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
                "log10_p_low": mine.log_p[0] / math.log(10), "log10_p_high": mine.log_p[1] / math.log(10),
                "tolerance": tol}
     sigma_mid = (mine.sigma[0] + mine.sigma[1]) / 2
     if sig.sigma is not None:
         yield _compare(f"Printed {sig.sigma.text} sigma", sig.sigma, sig.sigma.bounds, results, mine,
                        lambda r: r.sigma, lambda a, b: agrees(a, b, tol),
-                       f"{num_range(mine.sigma)} sigma",
-                       f"the {num_range(mine.sigma)} recomputed from estimate, threshold and errors",
+                       f"{span_text(mine.sigma)} sigma",
+                       f"the {span_text(mine.sigma)} recomputed from estimate, threshold and errors",
                        sigma_mid, stated, conv_words,
-                       {**details, "quantity": "sigma"})
+                       {**details, "quantity": "sigma"},
+                       {"field": sig.sigma.path, "statement": "sigma_vs_inputs", "printed": Shown.of(sig.sigma),
+                        "recomputed_range": Span(*mine.sigma), "tolerance": tol})
     if sig.p_value is not None and is_probability(sig.p_value):
         p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
         yield _compare(f"Printed p = {sig.p_value.text}", sig.p_value, log_bounds(sig.p_value), results, mine,
                        lambda r: r.log_p, lambda a, b: agrees_log(a, b, tol),
                        f"p = {p_range_text(mine.log_p)}", f"the recomputed p = {p_range_text(mine.log_p)}",
                        p_mid, stated, conv_words,
-                       {**details, "quantity": "p_value"})
+                       {**details, "quantity": "p_value"},
+                       {"field": sig.p_value.path, "statement": "p_vs_inputs", "printed": Shown.of(sig.p_value),
+                        "recomputed_range": _log10_span(mine.log_p), "tolerance": tol})
     if sig.sigma is None and sig.p_value is None:
         yield Finding("pass", f"No significance is printed; estimate, threshold and errors give "
-                      f"{num_range(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
-                      recomputed=sigma_mid, details={**details, "quantity": "sigma"})
+                      f"{span_text(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
+                      recomputed=sigma_mid, details={**details, "quantity": "sigma"}, statement="inputs_only",
+                      recomputed_range=Span(*mine.sigma), tolerance=tol)
     if sig.required_sigma is not None:
         need = sig.required_sigma.value
         facts = {**details, "quantity": "required_sigma", "required": need}
+        about = {"field": sig.required_sigma.path, "statement": "required_sigma",
+                 "printed": Shown.of(sig.required_sigma), "recomputed_range": Span(*mine.sigma),
+                 "tolerance": tol}
         if mine.sigma[1] * (1 + tol) < need:
-            yield Finding("fail", f"Recomputed {num_range(mine.sigma)} sigma falls short of the required "
-                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts)
+            yield Finding("fail", f"Recomputed {span_text(mine.sigma)} sigma falls short of the required "
+                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
         elif mine.sigma[0] < need:
-            yield Finding("warn", f"Recomputed {num_range(mine.sigma)} sigma reaches the required "
+            yield Finding("warn", f"Recomputed {span_text(mine.sigma)} sigma reaches the required "
                           f"{sig.required_sigma.text} sigma only within printed precision.",
-                          reported=need, recomputed=sigma_mid, details=facts)
+                          reported=need, recomputed=sigma_mid, details=facts, **about)
         else:
-            yield Finding("pass", f"Recomputed {num_range(mine.sigma)} sigma clears the required "
-                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts)
+            yield Finding("pass", f"Recomputed {span_text(mine.sigma)} sigma clears the required "
+                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
     tol = claim.tolerance
     found = list(_sigma_vs_p(claim, tol)) + list(_against_recomputed(claim, tol))
     yield from found
+
+
+SPEC = CheckSpec(
+    id="significance",
+    title="Significance",
+    run=check,
+    statements={
+        "sigma_vs_p": Statement(
+            question=("How was {what} obtained from the printed significance? Neither sidedness "
+                      "turns the one into the other."),
+            if_reproduced=("Was {what} computed {reproduced}? If so, please state that convention "
+                           "beside the number and use it throughout; if not, please say how it was computed."),
+            reproducible=True),
+        "sigma_vs_inputs": Statement(
+            question=("How was the significance computed from the estimate, the threshold and the errors? "
+                      "None of the conventions we tried reproduces the printed value."),
+            if_reproduced=("Was {what} computed {reproduced}? If so, please state that convention "
+                           "beside the number and use it throughout; if not, please say how it was computed."),
+            reproducible=True),
+        "p_vs_inputs": Statement(
+            question=("How was the p-value computed from the estimate, the threshold and the errors? "
+                      "None of the conventions we tried reproduces the printed value."),
+            if_reproduced=("Was {what} computed {reproduced}? If so, please state that convention "
+                           "beside the number and use it throughout; if not, please say how it was computed."),
+            reproducible=True),
+        "required_sigma": Statement(
+            question=("On what basis does the claim reach the required significance, given that the "
+                      "printed estimate, threshold and errors give less?")),
+        "inputs_only": ABOUT_THE_CLAIM,
+        "needs_inputs": ABOUT_THE_CLAIM,
+    },
+)

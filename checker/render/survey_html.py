@@ -9,7 +9,9 @@ from html import escape
 
 from .html import CSP
 
-from .survey_text import CAUTION, _plural, frame_records
+from ..vocabulary import CAUTION_SHORT
+from ..wording import plural
+from .survey_text import frame_records
 
 _COLUMNS = (
     ("source", "source"), ("title", "claim"), ("verdict", "verdict"), ("failed_checks", "flagged checks"),
@@ -51,8 +53,8 @@ def render_batch_html(frame, summary: dict) -> str:
     v = summary["verdicts"]
     clear = summary["clear_required_sigma"]
     facts = [
-        f"{_plural(summary['rows'], summary.get('unit', 'row'))}; {_plural(summary['checked'], 'claim')} checked; "
-        f"{_plural(summary['unusable'], summary.get('unit', 'row'))} could not be used.",
+        f"{plural(summary['rows'], summary.get('unit', 'row'))}; {plural(summary['checked'], 'claim')} checked; "
+        f"{plural(summary['unusable'], summary.get('unit', 'row'))} could not be used.",
         f"Verdicts: {v['consistent']:,} consistent, {v['inconsistent']:,} inconsistent, "
         f"{v['incomplete']:,} incomplete.",
         f"Of {summary['with_required_sigma']:,} claims that state a required sigma, "
@@ -73,7 +75,7 @@ def render_batch_html(frame, summary: dict) -> str:
         f"<title>{escape(title)}</title>\n<style>{_STYLE}</style>\n</head>\n<body>\n"
         f"<h1>{escape(title)}</h1>\n"
         + "".join(f"<p>{escape(f)}</p>\n" for f in facts)
-        + f'<p class="caution">{escape(CAUTION)}</p>\n'
+        + f'<p class="caution">{escape(CAUTION_SHORT)}</p>\n'
         + f"<table>\n<thead><tr>{head}</tr></thead>\n<tbody>\n" + "\n".join(body) + "\n</tbody>\n</table>\n"
         + "</body>\n</html>\n"
     )
