@@ -22,7 +22,7 @@ from ..report import Finding
 from ..stats.multiplicity import log_bonferroni, log_gross_vitells, log_sidak
 from ..stats.precision import agrees, over_box
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
-from .common import is_probability, log_bounds, num, num_range, p_range_text, p_text
+from .common import above, is_probability, log_bounds, num, num_range, p_range_text, p_text
 from .significance import recompute, stated_convention
 
 
@@ -154,7 +154,7 @@ def check(claim: Claim) -> Iterator[Finding]:
         yield _printed_global(sig.global_sigma, methods, primary, summary, details, tol)
     if sig.required_sigma is not None:
         need = sig.required_sigma.value
-        if gsigma[1] * (1 + tol) < need:
+        if above(sig.required_sigma, gsigma[1], tol):
             yield Finding("fail", f"After the look-elsewhere correction the claim reaches "
                           f"{num_range(gsigma)} sigma, below the required {sig.required_sigma.text}: {summary}.",
                           reported=need, recomputed=mid, details={**details, "required": need})

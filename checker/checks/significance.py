@@ -29,7 +29,7 @@ from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
-from .common import (convention_text, is_probability, count_for_error, finite_or_none, log_bounds, metric_of,
+from .common import (above, convention_text, is_probability, count_for_error, finite_or_none, log_bounds, metric_of,
                      model_inputs, num, num_range, p_range_text)
 
 KEYS = ("sided", "systematics", "error_at")
@@ -241,7 +241,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     if sig.required_sigma is not None:
         need = sig.required_sigma.value
         facts = {**details, "quantity": "required_sigma", "required": need}
-        if mine.sigma[1] * (1 + tol) < need:
+        if above(sig.required_sigma, mine.sigma[1], tol):
             yield Finding("fail", f"Recomputed {num_range(mine.sigma)} sigma falls short of the required "
                           f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts)
         elif mine.sigma[0] < need:

@@ -176,3 +176,12 @@ def test_a_linear_xeb_estimate_printed_as_zero_does_not_break_the_model():
     f = part_findings(text)["headline"]
     assert f.status == "pass"
     assert f.details["floor_low"] == pytest.approx(0.001, rel=1e-12)
+
+
+def test_a_proportion_at_one_half_uses_the_peak_of_the_binomial_variance(check_claim):
+    # Issue 11: "0.5 +- 0.153" from 100 samples.  Over p in [0.45, 0.55] the floor
+    # sqrt(p (1 - p)/100) peaks at 0.05 (p = 1/2, inside the interval), not at the corners' 0.0497;
+    # 0.153 is within the 2% tolerance of 3 x 0.05, so it gets no note.
+    (f,) = floor_findings(check_claim, "proportion", "0.5", "stat_error: 0.153\nsamples: 100\n")
+    assert f.details["floor_high"] == pytest.approx(0.05)
+    assert f.status == "pass"
