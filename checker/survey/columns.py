@@ -16,12 +16,12 @@ validator, so that its message is the one ``claimcheck check`` would print.
 
 from __future__ import annotations
 
-import difflib
 import re
 from dataclasses import dataclass
 from typing import Any, Callable, Sequence
 
 from ..claim.load import Document, dotted
+from ..claim.suggest import corrected_path
 from ..claim.validate import claim_schema
 from ..errors import DataError
 
@@ -164,8 +164,7 @@ class ColumnPlan:
                 props = node.get("properties", {})
                 if isinstance(key, int) or key not in props:
                     known = sorted(props)
-                    close = difflib.get_close_matches(str(key), known, n=1)
-                    hint = f"did you mean {dotted(here + (close[0],))!r}? " if close else ""
+                    hint = _column_hint(path)
                     where = f"of {dotted(here)}" if here else "of a claim"
                     raise DataError(self.table, f"the column {name!r} is not in the claim vocabulary",
                                     f"{hint}fields {where}: {', '.join(known)}; "
@@ -227,6 +226,18 @@ class ColumnPlan:
             quick = all(k in data for k in self._root_required) and all(
                 _group_complete(data, g.path, g.required) for g in self._groups)
         return Document(name, data, texts, {(): line} if line is not None else {}), quick
+
+
+def _column_hint(path: tuple) -> str:
+    """"did you mean 'significance.sigma'? " for a misspelt or misplaced column
+    (the same rule as a claim file's fields, the whole dotted name suggested)."""
+    found = corrected_path(path)
+    if not found:
+        return ""
+    names = " or ".join(repr(dotted(p)) for p in found)
+    if len(found) == 1 and len(path) == 1 and found[0][-1] == path[-1]:
+        return f"it belongs under {found[0][0]}: name the column {names}; "
+    return f"did you mean {names}? " + ("say which; " if len(found) > 1 else "")
 
 
 def _object_known(node: dict) -> bool:

@@ -114,7 +114,7 @@ def test_missing_required_fields():
 
 
 @pytest.mark.parametrize("field_text, words", [
-    ("metric: xeb", "metric (line 2): metric is 'xeb'; allowed: linear-xeb | log-xeb | heavy-output | "
+    ("metric: xeb", "metric (line 2): metric is 'xeb'; did you mean 'linear-xeb' or 'log-xeb'? allowed: linear-xeb | log-xeb | heavy-output | "
                     "proportion | mean"),
     ("significance: {sided: both}", "significance.sided (line 4): sided is 'both'; allowed: one | two"),
     ("significance: {systematics: added}", "allowed: none | quadrature | marginalized"),
