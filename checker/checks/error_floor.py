@@ -101,6 +101,16 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
                           reproduced_by={"samples": round(implied)} if implied is not None else None,
                           details=facts)
             return
+        if count_name == "circuits":
+            # The per-circuit error sqrt(h (1 - h)/circuits) is the criterion's convention
+            # (Cross et al. 2019), not a floor: the circuits' own heavy-output probabilities may
+            # spread far less than h (1 - h), and each circuit's shots shrink the rest.  Without
+            # the number of shots there is no floor (issue 11, item 4).
+            yield Finding("skip", f"{base}: {num(ratio, 2)}x the per-circuit convention, which is the "
+                          "heavy-output criterion's error, not a floor; the floor of sampling alone needs "
+                          "samples (all shots).", reported=error.value, recomputed=(low + high) / 2,
+                          details={**facts, "missing": ["samples"]})
+            return
         yield Finding("fail", f"{base}: smaller than sampling alone permits "
                       f"({num(ratio, 2)}x); it would take about {num(implied_n, 2)} {count_name}.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,

@@ -25,6 +25,7 @@ from typing import Iterator
 
 from ..claim.model import Claim
 from ..report import Finding
+from ..stats.binomial import binomial_variance, heavy_output_sigma
 from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
 from ..stats.systematics import log_p_marginalized
@@ -93,6 +94,8 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         stat = over_box(lambda count: model.standard_error(t, count, inputs), [n.bounds])
     else:
         stat, _ = statistical_error(claim)
+        if stat is None and per_circuit(claim):
+            return _recompute_per_circuit(claim, convention, syst)
         if stat is None:
             return None
     if not (math.isfinite(stat[0]) and stat[0] > 0):
@@ -120,6 +123,73 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         if sided == "two":
             sigma = tuple(sorted(abs(x) for x in sigma)) if sigma[0] * sigma[1] > 0 else (0.0, max(map(abs, sigma)))
     return Recomputed(convention, sigma, log_p)
+
+
+def per_circuit(claim: Claim) -> bool:
+    """Heavy output with circuits: the criterion's error over circuits,
+    sqrt(h (1 - h) / circuits) at the estimate, is defined (Cross et al. 2019)."""
+    return claim.metric == "heavy-output" and claim.circuits is not None and claim.circuits.low > 0
+
+
+def _recompute_per_circuit(claim: Claim, convention: dict, syst: tuple[float, float]) -> Recomputed | None:
+    """z and log p with the heavy-output criterion's error over circuits, taken at the estimate
+    (exact at the vertices of estimate, circuits and systematic: ``heavy_output_sigma``)."""
+    if convention["systematics"] == "marginalized":
+        return None
+    t = claim.threshold.value
+    sided = convention["sided"]
+    sigma = over_box(lambda e, k, ss: heavy_output_sigma(e, t, k, ss),
+                     [claim.estimate.bounds, claim.circuits.bounds, syst])
+    if not all(math.isfinite(v) for v in sigma):
+        return None
+    log_p = tuple(sorted(log_p_from_sigma(z, sided) for z in sigma))
+    if sided == "two":
+        sigma = tuple(sorted(abs(x) for x in sigma)) if sigma[0] * sigma[1] > 0 else (0.0, max(map(abs, sigma)))
+        log_p = tuple(sorted(log_p_from_sigma(z, sided) for z in sigma))
+    return Recomputed(convention, sigma, log_p)
+
+
+def _criterion(claim: Claim, shown: Recomputed, tol: float) -> Iterator[Finding]:
+    """With a printed error beside circuits, say under which convention a heavy-output claim
+    reaches its required level: the printed error (shot noise, when it is the binomial error of
+    all shots) or the criterion's error over circuits, the convention the 2/3-at-two-sigma
+    criterion is defined with (Cross et al. 2019).  Reaching it only under the first is flagged."""
+    sig = claim.significance
+    if not (per_circuit(claim) and sig.required_sigma is not None and statistical_error(claim)[0] is not None):
+        return
+    crit = _recompute_per_circuit(claim, {"sided": "one", "systematics": "none", "error_at": "estimate"},
+                                  (0.0, 0.0))
+    if crit is None:
+        return
+    need = sig.required_sigma
+    h = claim.estimate.value
+    per = math.sqrt(binomial_variance(h) / claim.circuits.value)
+    printed_ok = not above(need, shown.sigma[1], tol)
+    crit_ok = not above(need, crit.sigma[1], tol)
+    facts = {"quantity": "criterion", "required": need.value, "sigma_printed_low": shown.sigma[0],
+             "sigma_printed_high": shown.sigma[1], "sigma_circuits_low": crit.sigma[0],
+             "sigma_circuits_high": crit.sigma[1], "per_circuit_error": per, "tolerance": tol}
+    words = (f"the criterion's error over circuits, sqrt(h(1 - h)/{claim.circuits.text}) = {num(per, 3)}, "
+             f"gives {num_range(crit.sigma)} sigma")
+    printed = f"the printed stat_error {claim.stat_error.text}" if claim.stat_error else "the printed interval"
+    if printed_ok and not crit_ok:
+        yield Finding("fail", f"The required {need.text} sigma is reached only with {printed} "
+                      f"({num_range(shown.sigma)} sigma), an error below the criterion's (shot noise, say); {words}, "
+                      "short of it.",
+                      reported=need.value, recomputed=(crit.sigma[0] + crit.sigma[1]) / 2,
+                      reproduced_by={"error": "shot noise"}, details=facts)
+    elif printed_ok:
+        yield Finding("pass", f"The required {need.text} sigma is reached with {printed} and under the "
+                      f"criterion's convention too: {words}.", reported=need.value,
+                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts)
+    elif crit_ok:
+        yield Finding("pass", f"With {printed} the required {need.text} sigma is not reached, but {words}, "
+                      "which reaches it.", reported=need.value, recomputed=(crit.sigma[0] + crit.sigma[1]) / 2,
+                      details=facts)
+    else:
+        yield Finding("fail", f"The required {need.text} sigma is reached under neither convention: "
+                      f"{printed} gives {num_range(shown.sigma)} sigma and {words}.", reported=need.value,
+                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts)
 
 
 class _Lazy:
@@ -208,7 +278,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         missing = []
         if claim.threshold is None:
             missing.append("threshold")
-        if statistical_error(claim)[0] is None and stated["error_at"] == "estimate":
+        if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and not per_circuit(claim):
             missing.append("stat_error (or interval)")
         if stated["error_at"] == "threshold" and count_for_error(claim) is None:
             missing.append(metric_of(claim).count_field)
@@ -216,6 +286,8 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                       details={"missing": missing})
         return
     conv_words = convention_text(stated)
+    if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and per_circuit(claim):
+        conv_words += ", the criterion's error over circuits sqrt(h(1 - h)/circuits)"
     details = {"convention": stated, "stated": sorted(sig.stated), "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
                "log10_p_low": mine.log_p[0] / math.log(10), "log10_p_high": mine.log_p[1] / math.log(10),
                "tolerance": tol}
@@ -251,6 +323,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         else:
             yield Finding("pass", f"Recomputed {num_range(mine.sigma)} sigma clears the required "
                           f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts)
+        yield from _criterion(claim, mine, tol)
 
 
 def check(claim: Claim) -> Iterator[Finding]:

@@ -45,6 +45,7 @@ from .combine import tau2_paule_mandel
 from .ranges import Range, bounded_range, weighted_mean_range, weighted_ss_range
 
 ALL_VERTICES = 12  # free inputs up to which every vertex is a starting candidate
+PART_VERTICES = 10  # parts up to which every vertex of the estimates (and of the errors) is one
 
 METHOD_OF = {
     ("equal", "estimate"): "exact: linear in the estimates",
@@ -261,8 +262,19 @@ class CombinationRanges:
         apart = np.where(0.5 * (b.x_low + b.x_high) < mu, b.x_low, b.x_high)
         extra = [b.n] if with_n else []
         starts = [centre]
-        for x in (together, apart, b.x_low, b.x_high):
+        xs = [together, apart, b.x_low, b.x_high]
+        ss = [b.s_low, b.s_high]
+        if k <= PART_VERTICES:
+            # Every vertex of the estimates with the errors all at one end, and every vertex of
+            # the errors with the estimates drawn together or pushed apart.
+            pick = ((np.arange(2 ** k)[:, None] >> np.arange(k)) & 1).astype(bool)
+            xs += list(np.where(pick, b.x_high, b.x_low))
+            ss += list(np.where(pick, b.s_high, b.s_low))
+        for x in xs:
             for s in (b.s_low, b.s_high):
+                starts.append(np.concatenate([x, s] + extra))
+        for s in ss:
+            for x in (together, apart):
                 starts.append(np.concatenate([x, s] + extra))
         return self._search(fn, low, high, starts)
 
@@ -293,5 +305,7 @@ class CombinationRanges:
             with np.errstate(all="ignore"):
                 return float(fn_rows(z[None, :])[0])
 
-        lo, hi = bounded_range(one, low, high, starts=best)
+        # With every vertex among the candidates one search each way from the best of them.
+        lo, hi = bounded_range(one, low, high, starts=best,
+                               searches=1 if free.size <= ALL_VERTICES else 2)
         return (min(lo, float(values[ok].min())), max(hi, float(values[ok].max())))

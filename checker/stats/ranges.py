@@ -274,7 +274,7 @@ def weighted_ss_range(x_low, x_high, w_min, w_max) -> Range:
 
 
 def bounded_range(fn: Callable[[np.ndarray], float | None], low: Sequence[float], high: Sequence[float],
-                  starts: Sequence[Sequence[float]] = (), searches: int = 2) -> Range:
+                  starts: Sequence[Sequence[float]] = (), searches: int = 2, maxiter: int = 60) -> Range:
     """Range of ``fn`` over the box [low, high] by bounded local search.
 
     Method: every start (and the box's centre) is evaluated; from the best
@@ -319,7 +319,7 @@ def bounded_range(fn: Callable[[np.ndarray], float | None], low: Sequence[float]
                 return sign * v / scale if math.isfinite(v) else 1e300
 
             res = minimize(objective, base[index], method="L-BFGS-B", bounds=bounds,
-                           options={"ftol": 1e-13, "gtol": 1e-11, "maxiter": 200})
+                           options={"ftol": 1e-11, "gtol": 1e-9, "maxiter": maxiter})
             full = base.copy()
             full[index] = np.clip(res.x, 0.0, 1.0)
             v = at(full)
