@@ -33,6 +33,20 @@ def count_for_error(claim: Claim) -> Reported | None:
     return claim.samples
 
 
+# The agreement rule, one-sided (README, "Printed precision"): a printed number and a recomputed
+# bound disagree when the gap between them is more than ``tolerance`` times the printed value.
+def below(printed: Reported, bound: float, tolerance: float) -> bool:
+    """The whole printed interval lies below ``bound``, by more than
+    ``tolerance`` x the printed value."""
+    return bound - printed.high > tolerance * abs(printed.value)
+
+
+def above(printed: Reported, bound: float, tolerance: float) -> bool:
+    """The whole printed interval lies above ``bound``, by more than
+    ``tolerance`` x the printed value."""
+    return printed.low - bound > tolerance * abs(printed.value)
+
+
 def log_bounds(rep: Reported) -> tuple[float, float]:
     """Natural-log interval of a printed p-value ("< 0.001" runs down to 0)."""
     low = -math.inf if math.isnan(rep.log_low) else min(rep.log_low, 0.0)

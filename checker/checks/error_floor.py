@@ -13,24 +13,30 @@ from typing import Iterator
 
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
-from ..stats.precision import over_box
+from ..stats.ranges import sampling_error_range
 from ..wording import num, span_text
-from .common import count_for_error, metric_of, model_inputs
+from .common import above, below, count_for_error, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 WARN_RATIO = 3.0
 
 
 def _floor(claim: Claim, estimate: Reported, n: Reported, factor: tuple[float, float]):
+    """The floor's exact range over the printed box (``stats.ranges.sampling_error_range``:
+    the variance's own extremes over the estimate's interval, not its corners)."""
     model = metric_of(claim)
-    sd_box = claim.sd.bounds if claim.sd is not None else (None, None)
-
-    def se(value, count, sd, scale):
+    lows, highs = [], []
+    # The variance rises with sd (metric mean), so its two ends bound it.
+    for sd in sorted(set(claim.sd.bounds)) if claim.sd is not None else (None,):
         inputs = model_inputs(claim, sd=sd)
-        s = model.standard_error(value / scale, count, inputs)
-        return None if s is None else s * scale
-
-    return over_box(se, [estimate.bounds, n.bounds, sd_box, factor])
+        low, high = sampling_error_range(lambda v: model.variance(v, inputs),
+                                         lambda a, b: model.variance_range(a, b, inputs),
+                                         estimate.bounds, n.bounds, factor)
+        lows.append(low)
+        highs.append(high)
+    if not all(math.isfinite(v) for v in lows + highs):
+        return (math.nan, math.nan)
+    return (min(lows), max(highs))
 
 
 def _count_for(variance: float | None, scale: float, error: float) -> float | None:
@@ -87,7 +93,7 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
             f"{n.text} {count_name} allow under the {model.name} model")
     if samples is not None:
         facts["sampling_floor_low"], facts["sampling_floor_high"] = hard
-    if error.high * (1 + tol) < hard[0]:
+    if below(error, hard[0], tol):
         if samples is not None:
             ratio = error.value / ((hard[0] + hard[1]) / 2)
             facts["ratio"] = ratio
@@ -100,18 +106,28 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
                           reproduced_by={"samples": round(implied)} if implied is not None else None,
                           details=facts, statement="below_floor", **{**about, "recomputed_range": Span(*hard)})
             return
+        if count_name == "circuits":
+            # The per-circuit error sqrt(h (1 - h)/circuits) is the criterion's convention
+            # (Cross et al. 2019), not a floor: the circuits' own heavy-output probabilities may
+            # spread far less than h (1 - h), and each circuit's shots shrink the rest.  Without
+            # the number of shots there is no floor (issue 11, item 4).
+            yield Finding("skip", f"{base}: {num(ratio, 2)}x the per-circuit convention, which is the "
+                          "heavy-output criterion's error, not a floor; the floor of sampling alone needs "
+                          "samples (all shots).", reported=error.value, recomputed=(low + high) / 2,
+                          details={**facts, "missing": ["samples"]}, statement="per_circuit_convention", **about)
+            return
         yield Finding("fail", f"{base}: smaller than sampling alone permits "
                       f"({num(ratio, 2)}x); it would take about {num(implied_n, 2)} {count_name}.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
                       details=facts, statement="below_floor", **about)
-    elif error.high * (1 + tol) < low:
+    elif below(error, low, tol):
         yield Finding("pass", f"{what}: printed stat_error {error.text} is below the {span_text((low, high))} "
                       f"that the per-{count_name[:-1]} convention gives for {n.text} {count_name} "
                       f"({num(ratio, 2)}x) but above the {span_text(hard)} floor of {samples.text} samples: "
                       f"consistent with many samples per {count_name[:-1]}.",
                       reported=error.value, recomputed=(low + high) / 2, details=facts,
                       statement="per_circuit_convention", **about)
-    elif error.low > WARN_RATIO * high * (1 + tol):
+    elif above(error, WARN_RATIO * high, tol):
         yield Finding("warn", f"{base}: {num(ratio, 2)}x the sampling floor, which suggests extra "
                       "spread (drift, circuit-to-circuit variation) the claim does not describe.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
