@@ -124,7 +124,7 @@ def one_error_line(status, out, err, starts=None):
 @pytest.mark.parametrize("text, words", [
     ("title: t\nmetric: mean\nestimate: 1\nsamples: -5\n", "samples (line 4): samples must be a whole number"),
     ("title: t\nmetric: mean\nestimate: 1\nsamples: 2.5\n", "samples (line 4)"),
-    ("title: t\nmetric: mean\n", "the required field 'estimate' is missing"),
+    ("title: t\nmetric: mean\n", "estimate (line 1): estimate is missing"),
     ("title: t\nmetric: mean\nestimate: [1\n", "is not valid YAML"),
     ("title: t\nmetric: mean\nestimate: 017\n", "octal"),
     ("title: t\nmetric: mean\nestimate: 1\nestimate: 2\n", "twice"),

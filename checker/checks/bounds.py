@@ -72,7 +72,8 @@ def check(claim: Claim) -> Iterator[Finding]:
         checked += 1
         found.extend(gen)
 
-    collect(_estimate_findings(claim, claim.estimate, claim.stat_error, "The estimate", {}))
+    if claim.estimate is not None:
+        collect(_estimate_findings(claim, claim.estimate, claim.stat_error, "The estimate", {}))
     collect(_positive(claim.stat_error, "The statistical error"))
     collect(_positive(claim.syst_error, "The systematic error", allow_zero=True))
     if claim.sd is not None:
@@ -103,7 +104,7 @@ def check(claim: Claim) -> Iterator[Finding]:
                                  "its low end is above its high end.", details={"field": "interval"},
                                  field="interval", statement="interval_order",
                                  printed=Shown(f"[{iv.low.text}, {iv.high.text}]", iv.low.low, iv.high.high)))
-        elif not iv.low.low <= claim.estimate.value <= iv.high.high:
+        elif claim.estimate is not None and not iv.low.low <= claim.estimate.value <= iv.high.high:
             found.append(Finding("fail", f"The estimate {claim.estimate.text} lies outside its own "
                                  f"interval [{iv.low.text}, {iv.high.text}].", details={"field": "interval"},
                                  **_on(claim.estimate, "outside_interval")))

@@ -145,7 +145,8 @@ def check(claim: Claim) -> Iterator[Finding]:
         factor = claim.extrapolation.factor.bounds
     n = count_for_error(claim)
     samples = claim.samples if (n is not None and n is not claim.samples) else None
-    yield from _one(claim, claim.estimate, claim.stat_error, n, factor, "Headline", {}, samples)
+    if claim.estimate is not None:
+        yield from _one(claim, claim.estimate, claim.stat_error, n, factor, "Headline", {}, samples)
     for part in claim.parts:
         if part.stat_error is None:
             continue

@@ -88,7 +88,7 @@ def _conventions(claim: Claim) -> list[dict]:
 
 def recompute(claim: Claim, convention: dict) -> Recomputed | None:
     """z and log p over the box of the printed inputs, under one convention."""
-    if claim.threshold is None:
+    if claim.threshold is None or claim.estimate is None:
         return None
     t = claim.threshold.value
     sided, systematics, error_at = (convention[k] for k in KEYS)
@@ -288,6 +288,8 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     mine = next((r for r in results if r.convention == stated), None)
     if mine is None:
         missing = []
+        if claim.estimate is None:
+            missing.append("estimate")
         if claim.threshold is None:
             missing.append("threshold")
         if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and not per_circuit(claim):
