@@ -56,7 +56,7 @@ def test_nothing_checkable_is_incomplete_and_exit_zero(write_claim):
 
 
 FINDING_KEYS = {"check", "status", "message", "reported", "recomputed", "reproduced_by", "details",
-                "field", "statement", "printed", "recomputed_range", "tolerance"}
+                "field", "statement", "printed", "recomputed_range", "tolerance", "title", "question"}
 
 
 @pytest.mark.parametrize("text", [CLEAN, FLAWED])
