@@ -27,6 +27,7 @@ COMMANDS = {
     "simulate": "simulate",
     "drift": "drift",
     "draft": "draft",
+    "template": "template",
 }
 
 DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs and say, number by "
@@ -54,7 +55,10 @@ class _UsageError(Exception):
 
 
 def build_parser() -> tuple[argparse.ArgumentParser, dict]:
+    from . import __version__
+
     parser = _Parser(prog="claimcheck", description=DESCRIPTION)
+    parser.add_argument("--version", action="version", version=f"claimcheck {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     modules = {}
     for name, module_name in COMMANDS.items():

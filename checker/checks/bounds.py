@@ -29,7 +29,7 @@ def _estimate_findings(claim: Claim, value: Reported, error: Reported | None,
         side, limit = ("above", model.highest) if value.low > model.highest else ("below", model.lowest)
         if model.hard_bounds or (side == "below" and model.hard_lowest):
             yield Finding("fail", f"{what} {value.text} lies {side} {num(limit)}, which "
-                          f"{model.noun} cannot do.",
+                          f"{model.noun} cannot do{_percent_hint(value, model) or '.'}",
                           details={**details, "field": value.path, "limit": limit}, **_on(value, "estimate_range"))
             return
         excess = (value.low - model.highest) if side == "above" else (model.lowest - value.high)
@@ -50,6 +50,15 @@ def _estimate_findings(claim: Claim, value: Reported, error: Reported | None,
                           f"{'most' if side == 'above' else 'least'} {model.noun} can be, by more "
                           f"than {NOISE_ALLOWANCE:g} standard errors.",
                           details={**details, "field": value.path, "limit": limit}, **_on(value, "estimate_range"))
+
+
+def _percent_hint(value: Reported, model) -> str:
+    """The end of a sentence for a value from 2 to 100 where at most 1 is
+    possible: most likely a percentage written without its sign (a 1.02 is
+    more likely a value just above 1)."""
+    if model.highest == 1 and 2 <= value.value <= 100 and not value.text.rstrip().endswith("%"):
+        return f"; {model.noun} is at most 1: did you mean {value.text.strip()}%?"
+    return ""
 
 
 def _positive(rep: Reported | None, what: str, allow_zero: bool = False, details=None) -> Iterator[Finding]:
@@ -83,7 +92,8 @@ def check(claim: Claim) -> Iterator[Finding]:
         checked += 1
         if not model.lowest <= t.value <= model.highest:
             found.append(Finding("fail", f"The threshold {t.text} lies outside [{num(model.lowest)}, "
-                                 f"{num(model.highest)}], the range of {model.noun}.",
+                                 f"{num(model.highest)}], the range of {model.noun}"
+                                 f"{_percent_hint(t, model) or '.'}",
                                  details={"field": t.path}, **_on(t, "threshold_range")))
     p = claim.significance.p_value
     if p is not None:

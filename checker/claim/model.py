@@ -4,7 +4,9 @@ the float together with the interval its printed digits stand for."""
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass, replace
+from fractions import Fraction
 from typing import Any
 
 from ..errors import ClaimSchemaError
@@ -22,6 +24,9 @@ EXACT_FIELDS = {
     ("threshold",), ("tolerance",), ("trials",), ("interval", "level"),
     ("significance", "required_sigma"), ("significance", "upcrossing_sigma"),
 }
+# An exact definition may be written as a fraction ("threshold: 2/3"); the schema
+# allows it only for these fields.
+FRACTION = re.compile(r"[+-]?(0|[1-9][0-9]*)/[1-9][0-9]*")
 COUNT_FIELDS = {"qubits", "samples", "circuits", "trials", "items", "count"}
 # Whole numbers that may be zero: events seen, discordant items.
 ZERO_COUNT_FIELDS = {"observed", "discordant"}
@@ -242,6 +247,8 @@ class _Builder:
             bound = self._parse(text[1:], path, name, exact=True, shown=text)
             return Reported(bound.value, 0.0, bound.value, text, dotted(path), self.doc.line_of(path),
                             -math.inf, bound.log_high)
+        if path in EXACT_FIELDS and FRACTION.fullmatch(text):
+            return self._fraction(text, path)
         counting = name in COUNT_FIELDS
         from_zero = name in ZERO_COUNT_FIELDS
         if name in NO_PERCENT_FIELDS and text.endswith("%"):
@@ -259,6 +266,17 @@ class _Builder:
                       "counts are whole numbers such as 30 or 2.5e7")
         return Reported(printed.value, printed.low, printed.high, text, dotted(path),
                         self.doc.line_of(path), printed.log_low, printed.log_high)
+
+    def _fraction(self, text: str, path: tuple) -> Reported:
+        """An exact fraction: its value as near as a double holds it, no printed
+        interval, and its log from the whole numbers (exact beyond the double range)."""
+        ratio = Fraction(text)
+        value = float(ratio)
+        if ratio > 0:
+            log_value = math.log(ratio.numerator) - math.log(ratio.denominator)
+        else:
+            log_value = -math.inf if ratio == 0 else math.nan
+        return Reported(value, value, value, text, dotted(path), self.doc.line_of(path), log_value, log_value)
 
     def _parse(self, text, path, name, exact, shown=None):
         try:

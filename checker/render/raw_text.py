@@ -107,12 +107,15 @@ def _visible(findings):
     return shown, same
 
 
-def render_drift_text(result, file: str) -> str:
-    """The stability summary of one series."""
+def render_drift_text(result, file: str, origin: str | None = None) -> str:
+    """The stability summary of one series; ``origin`` is the first point's
+    date-time when the times were date-times (then counted in hours since it)."""
     r = result
-    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)} "
+    unit = f" hours since the first point ({origin})" if origin else ""
+    per = "per hour" if origin else "per unit time"
+    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)}{unit} "
              f"({r.window_points} points)", ""]
-    lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} per unit time; {r.level:.0%} interval "
+    lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} {per}; {r.level:.0%} interval "
                  f"{_n(r.slope_low)} to {_n(r.slope_high)} ({p_equals(r.slope_p_value)})")
     lines.append(f"  level at window  {_n(r.trend_level)} +- {_n(r.trend_level_error, 3)} (intercept at the window "
                  "centre)")
