@@ -4,7 +4,9 @@ the float together with the interval its printed digits stand for."""
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass, replace
+from fractions import Fraction
 from typing import Any
 
 from ..errors import ClaimSchemaError
@@ -22,6 +24,9 @@ EXACT_FIELDS = {
     ("threshold",), ("tolerance",), ("trials",), ("interval", "level"),
     ("significance", "required_sigma"), ("significance", "upcrossing_sigma"),
 }
+# An exact definition may be written as a fraction ("threshold: 2/3"); the schema
+# allows it only for these fields.
+FRACTION = re.compile(r"[+-]?(0|[1-9][0-9]*)/[1-9][0-9]*")
 COUNT_FIELDS = {"qubits", "samples", "circuits", "trials", "items", "count"}
 # Whole numbers that may be zero: events seen, discordant items.
 ZERO_COUNT_FIELDS = {"observed", "discordant"}
@@ -173,7 +178,8 @@ class Comparison:
 
 # The estimate may be left out only by these kinds of claim (README, "Claim format").
 ESTIMATE_OPTIONAL = ("a counting experiment (metric counts), a claim that prints only its significances "
-                     "(a local sigma or p and a global sigma), or a comparison that prints its difference")
+                     "(a local sigma or p and a global sigma), a comparison that prints its difference, "
+                     "or a table of rates (counts_table)")
 
 
 @dataclass(frozen=True)
@@ -203,13 +209,13 @@ class Claim:
     integer_data: bool = False
     items: Reported | None = None
     tolerance: float = DEFAULT_TOLERANCE
+    counts_table: CountsTable | None = None
+    rates: tuple[PrintedRate, ...] = ()
     observed: Reported | None = None
     background: Reported | None = None
     background_error: Reported | None = None
     baseline: Baseline | None = None
     comparison: Comparison | None = None
-    counts_table: CountsTable | None = None
-    rates: tuple[PrintedRate, ...] = ()
 
     @property
     def qubit_count(self) -> int | None:
@@ -241,6 +247,8 @@ class _Builder:
             bound = self._parse(text[1:], path, name, exact=True, shown=text)
             return Reported(bound.value, 0.0, bound.value, text, dotted(path), self.doc.line_of(path),
                             -math.inf, bound.log_high)
+        if path in EXACT_FIELDS and FRACTION.fullmatch(text):
+            return self._fraction(text, path)
         counting = name in COUNT_FIELDS
         from_zero = name in ZERO_COUNT_FIELDS
         if name in NO_PERCENT_FIELDS and text.endswith("%"):
@@ -258,6 +266,17 @@ class _Builder:
                       "counts are whole numbers such as 30 or 2.5e7")
         return Reported(printed.value, printed.low, printed.high, text, dotted(path),
                         self.doc.line_of(path), printed.log_low, printed.log_high)
+
+    def _fraction(self, text: str, path: tuple) -> Reported:
+        """An exact fraction: its value as near as a double holds it, no printed
+        interval, and its log from the whole numbers (exact beyond the double range)."""
+        ratio = Fraction(text)
+        value = float(ratio)
+        if ratio > 0:
+            log_value = math.log(ratio.numerator) - math.log(ratio.denominator)
+        else:
+            log_value = -math.inf if ratio == 0 else math.nan
+        return Reported(value, value, value, text, dotted(path), self.doc.line_of(path), log_value, log_value)
 
     def _parse(self, text, path, name, exact, shown=None):
         try:
@@ -337,60 +356,10 @@ class _Builder:
             combination=combination, extrapolation=extrapolation, error_budget=budget,
             integer_data=bool(d.get("integer_data", False)), items=num("items"),
             tolerance=tolerance.value if tolerance is not None else DEFAULT_TOLERANCE,
+            counts_table=counts_table, rates=rates,
             observed=observed, background=background, background_error=num("background_error"),
             baseline=baseline, comparison=comparison,
-            counts_table=counts_table, rates=rates,
         )
-
-    def _baseline(self, d: dict) -> Baseline | None:
-        b = d.get("baseline")
-        if not b:
-            return None
-        return Baseline(estimate=self.number(b, ("baseline", "estimate")),
-                        label=str(b.get("label") or "baseline"),
-                        stat_error=self.number(b, ("baseline", "stat_error")),
-                        samples=self.number(b, ("baseline", "samples")))
-
-    def _comparison(self, d: dict) -> Comparison | None:
-        c = d.get("comparison")
-        if not c:
-            return None
-        discordant = None
-        if c.get("discordant") is not None:
-            pair = c["discordant"]
-            discordant = tuple(self.number(pair, ("comparison", "discordant", i), name="discordant") for i in (0, 1))
-        return Comparison(paired=bool(c.get("paired", False)), discordant=discordant,
-                          difference=self.number(c, ("comparison", "difference")),
-                          difference_error=self.number(c, ("comparison", "difference_error")),
-                          sigma=self.number(c, ("comparison", "sigma")),
-                          p_value=self.number(c, ("comparison", "p_value")),
-                          sided=c.get("sided") or "one", test=c.get("test"),
-                          stated=frozenset(k for k in ("paired", "sided", "test") if k in c))
-
-    def _kind_inputs(self, d, estimate, sig, comparison, observed, background) -> None:
-        """What the schema cannot say: which kinds may leave the estimate out,
-        and the inputs a counting experiment needs."""
-        counting = d["metric"] == "counts"
-        if counting:
-            for key, value in (("observed", observed), ("background", background)):
-                if value is None:
-                    self.fail((key,), f"a counting experiment (metric counts) needs {key}",
-                              "give observed (events seen) and background (events expected without a signal)")
-            if background.value <= 0:
-                self.fail(("background",), f"background must be above 0, got {background.text}",
-                          "the expected number of background events, such as 30.2")
-        else:
-            for key in ("observed", "background", "background_error"):
-                if d.get(key) is not None:
-                    self.fail((key,), f"{key} belongs to a counting experiment, but metric is {d['metric']}",
-                              "write metric: counts, or leave out observed, background and background_error")
-        if estimate is not None or counting:
-            return
-        only_significances = (sig.sigma is not None or sig.p_value is not None) and sig.global_sigma is not None
-        printed_difference = comparison is not None and comparison.difference is not None
-        if not (only_significances or printed_difference):
-            self.fail(("estimate",), "estimate is missing", "give the headline value as printed; only "
-                      + ESTIMATE_OPTIONAL + " may leave it out")
 
     def interval(self, iv: dict | None, path: tuple) -> Interval | None:
         if not iv:
@@ -434,6 +403,55 @@ class _Builder:
             self.fail(("rates",), "rates are printed but no counts_table gives the counts they come from",
                       "add counts_table: {true_positive, false_positive, false_negative, true_negative}")
         return table, tuple(rates)
+    def _baseline(self, d: dict) -> Baseline | None:
+        b = d.get("baseline")
+        if not b:
+            return None
+        return Baseline(estimate=self.number(b, ("baseline", "estimate")),
+                        label=str(b.get("label") or "baseline"),
+                        stat_error=self.number(b, ("baseline", "stat_error")),
+                        samples=self.number(b, ("baseline", "samples")))
+
+    def _comparison(self, d: dict) -> Comparison | None:
+        c = d.get("comparison")
+        if not c:
+            return None
+        discordant = None
+        if c.get("discordant") is not None:
+            pair = c["discordant"]
+            discordant = tuple(self.number(pair, ("comparison", "discordant", i), name="discordant") for i in (0, 1))
+        return Comparison(paired=bool(c.get("paired", False)), discordant=discordant,
+                          difference=self.number(c, ("comparison", "difference")),
+                          difference_error=self.number(c, ("comparison", "difference_error")),
+                          sigma=self.number(c, ("comparison", "sigma")),
+                          p_value=self.number(c, ("comparison", "p_value")),
+                          sided=c.get("sided") or "one", test=c.get("test"),
+                          stated=frozenset(k for k in ("paired", "sided", "test") if k in c))
+
+    def _kind_inputs(self, d, estimate, sig, comparison, observed, background) -> None:
+        """What the schema cannot say: which kinds may leave the estimate out,
+        and the inputs a counting experiment needs."""
+        counting = d["metric"] == "counts"
+        if counting:
+            for key, value in (("observed", observed), ("background", background)):
+                if value is None:
+                    self.fail((key,), f"a counting experiment (metric counts) needs {key}",
+                              "give observed (events seen) and background (events expected without a signal)")
+            if background.value <= 0:
+                self.fail(("background",), f"background must be above 0, got {background.text}",
+                          "the expected number of background events, such as 30.2")
+        else:
+            for key in ("observed", "background", "background_error"):
+                if d.get(key) is not None:
+                    self.fail((key,), f"{key} belongs to a counting experiment, but metric is {d['metric']}",
+                              "write metric: counts, or leave out observed, background and background_error")
+        if estimate is not None or counting or d.get("counts_table"):
+            return
+        only_significances = (sig.sigma is not None or sig.p_value is not None) and sig.global_sigma is not None
+        printed_difference = comparison is not None and comparison.difference is not None
+        if not (only_significances or printed_difference):
+            self.fail(("estimate",), "estimate is missing", "give the headline value as printed; only "
+                      + ESTIMATE_OPTIONAL + " may leave it out")
 
 
 def _shortened(text: str, keep: int = 40) -> str:

@@ -58,10 +58,22 @@ def _where(err) -> tuple:
     return path
 
 
-def _number_advice(text: str) -> str | None:
-    """Why a text that looks numeric is refused, for the YAML 1.1 surprises."""
+# Fields that may be written as an exact fraction (the schema's fraction pattern).
+FRACTION_FIELDS = ("threshold, tolerance, interval.level, significance.required_sigma, "
+                   "significance.upcrossing_sigma")
+
+
+def _number_advice(text: str, path: tuple = ()) -> str | None:
+    """Why a text that looks numeric is refused, for the YAML 1.1 surprises
+    and for fractions."""
     t = text.strip()
     low = t.lower()
+    if re.fullmatch(r"[+-]?[0-9.]+\s*/\s*[0-9.]+", t):
+        if dotted(tuple(k for k in path if not isinstance(k, int))) in FRACTION_FIELDS.split(", "):
+            return (f"{t} is not a fraction claimcheck reads",
+                    "write whole numbers without spaces and a denominator of at least 1, such as 2/3")
+        return (f"{t} is a fraction, which claimcheck reads only where a definition is exact "
+                f"({FRACTION_FIELDS})", "write the value with the digits the paper printed, such as 0.667")
     if _OCTAL.match(t):
         return (f"{t} has a leading zero, which YAML 1.1 reads as an octal number "
                 f"({int(t, 8) if set(t.lstrip('+-')) <= set('01234567') else 'not a number'})",
@@ -118,7 +130,7 @@ def describe(err, doc: Document) -> tuple[str, str]:
         if "number" in kinds or "integer" in kinds:
             counting = "integer" in kinds
             if isinstance(instance, str):
-                advice = _number_advice(instance)
+                advice = _number_advice(instance, path)
                 if advice:
                     return advice
             if isinstance(instance, bool):
@@ -159,7 +171,7 @@ def describe(err, doc: Document) -> tuple[str, str]:
         return (f"{field} must be at least {schema['minimum']}, got {text or err.instance}",
                 "write a larger number")
     if validator == "pattern":
-        advice = _number_advice(str(err.instance))
+        advice = _number_advice(str(err.instance), path)
         if advice:
             return advice
         return (f"{field} must be a number, got {err.instance!r}",

@@ -253,7 +253,8 @@ def test_a_plain_claim_still_needs_its_estimate():
     assert _refused("title: t\nmetric: mean\n") == (
         "claim.yaml: estimate (line 1): estimate is missing; give the headline value as printed; only a "
         "counting experiment (metric counts), a claim that prints only its significances (a local sigma or "
-        "p and a global sigma), or a comparison that prints its difference may leave it out")
+        "p and a global sigma), a comparison that prints its difference, or a table of rates (counts_table) "
+        "may leave it out")
 
 
 def test_kinds_that_may_leave_out_the_estimate():

@@ -23,8 +23,8 @@ def refusal(*argv) -> str:
 
 @pytest.mark.parametrize("extra, hint", [
     # A field of another section is sent there, not to the nearest spelling ('estimate').
-    ("sigma: 3\n", "unknown field 'sigma'; it belongs under comparison or under significance; allowed fields of a claim"),
-    ("p_value: 0.01\n", "unknown field 'p_value'; it belongs under comparison or under significance;"),
+    ("sigma: 3\n", "unknown field 'sigma'; it belongs under significance; allowed fields of a claim"),
+    ("p_value: 0.01\n", "unknown field 'p_value'; it belongs under significance;"),
     ("shots: 1000\n", "unknown field 'shots'; did you mean 'samples'? allowed"),
     ("n: 1000\n", "unknown field 'n'; did you mean 'samples'? allowed"),
     ("systematic: 0.01\n", "unknown field 'systematic'; did you mean 'syst_error'? allowed"),
@@ -55,9 +55,8 @@ def test_a_choice_under_a_section_gets_its_spelling_too(write_claim):
 
 
 @pytest.mark.parametrize("column, hint", [
-    # sigma is a field of two sections (significance, and comparison for a baseline): ask which
-    ("sigma", "the column 'sigma' is not in the claim vocabulary; did you mean 'comparison.sigma' or "
-              "'significance.sigma'? say which;"),
+    ("sigma", "the column 'sigma' is not in the claim vocabulary; it belongs under significance: "
+              "name the column 'significance.sigma';"),
     # A misspelt dotted column gets the whole dotted name, not only its first part.
     ("signficance.sigma", "the column 'signficance.sigma' is not in the claim vocabulary; "
                           "did you mean 'significance.sigma'?"),
