@@ -58,9 +58,11 @@ def render_raw_text(result) -> str:
             lines.append(f"  {AT_WORDS[at]:<9} F = {_n(tests[0].fidelity)}   {parts}")
     b = result.bootstrap
     if b is not None:
+        first = f"{b.level:.0%} {b.interval} {_n(b.low)} to {_n(b.high)}; "
+        if b.interval != "percentile":
+            first += f"percentile {_n(b.percentile_low)} to {_n(b.percentile_high)}; "
         lines += ["", f"Bootstrap ({b.replicates:,} replicates, {b.resampling} resampled, seed {b.seed}): "
-                  f"{b.level:.0%} percentile {_n(b.low)} to {_n(b.high)}; basic {_n(b.basic_low)} to "
-                  f"{_n(b.basic_high)}; sd {_n(b.sd, 3)}"]
+                  f"{first}basic {_n(b.basic_low)} to {_n(b.basic_high)}; sd {_n(b.sd, 3)}"]
     if result.circuit_count > 1:
         lines += ["", f"Per circuit ({METRIC_WORDS[result.metric]}"
                   f"{', first ' + str(MAX_CIRCUIT_LINES) if result.circuit_count > MAX_CIRCUIT_LINES else ''}):",
