@@ -12,7 +12,7 @@ from typing import Callable, Iterable, Iterator
 from ..claim.model import Claim
 from ..report import Finding, Report
 from . import bounds, error_floor, look_elsewhere, significance
-from . import combination, heterogeneity, extrapolation, error_budget, interval, granularity  # noqa: E402,I001
+from . import combination, heterogeneity, extrapolation, error_budget, interval, granularity, rates  # noqa: E402,I001
 
 CheckFunction = Callable[[Claim], Iterator[Finding]]
 
@@ -27,6 +27,7 @@ REGISTRY: dict[str, CheckFunction] = {
     "error-budget": error_budget.check,
     "interval": interval.check,
     "granularity": granularity.check,
+    "rates": rates.check,
 }
 
 

@@ -29,6 +29,7 @@ from typing import Iterator
 from ..claim.model import Claim
 from ..report import Finding
 from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval, proportion_intervals
+from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.granularity import granularity
 from ..stats.interval import sigma_from_interval, z_for_level
 from ..stats.precision import agrees, gap, over_box
@@ -195,8 +196,38 @@ def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
                            f"({listing}); it is the {NAMES[other[0]]} interval at {words}.",
                            reported=iv.low.value, recomputed=shown[other[0]]["low"],
                            reproduced_by={"method": other[0], "level": round(lev, 6)}, details=details)
+    return _other_denominator(claim, level, lt, printed, what, listing, slack, shown, details)
+
+
+def _other_denominator(claim, level, lt, printed, what, listing, slack, shown, details) -> Finding:
+    """No method gives the print with the stated samples: an interval wider than
+    every method is a design effect (a note); otherwise name the whole N with
+    which a method gives it (stats/denominator_search.py)."""
+    iv = claim.interval
+    kept = dict(reported=iv.low.value, recomputed=shown["wilson"]["low"])
+    half = (iv.high.value - iv.low.value) / 2
+    widest = max(v["high"] - v["low"] for v in shown.values())
+    n = claim.samples.value
+    n_eff = effective_sample_size(claim.estimate.value, half, level) if 0 < claim.estimate.value < 1 else 0.0
+    if 2 * half > widest and 0.0 < n_eff < math.inf and math.isfinite(n / n_eff):
+        deff = n / n_eff
+        return Finding("warn", f"The printed {lt} interval {printed} for {what} is {2 * half / widest:.2g} times "
+                       f"as wide as the widest binomial interval ({listing}); it implies about {n_eff:.3g} "
+                       f"effective items, a design effect of {deff:.3g}. A clustered analysis is a legitimate "
+                       "reason; the paper should say so.",
+                       details={**details, "effective_samples": n_eff, "design_effect": deff}, **kept)
+    search = search_denominator(claim.estimate.bounds, iv.low.bounds, iv.high.bounds, level, slack)
+    if search.fits:
+        fit = search.fits[0]
+        span = (f"N = {fit.n_low}" if fit.n_low == fit.n_high
+                else f"N = {fit.n_low} to {fit.n_high} (closest {fit.n_best})")
+        return Finding("fail", f"The printed {lt} interval {printed} for {what} matches no method ({listing}); "
+                       f"the {NAMES[fit.method]} interval gives it with {span} instead of the printed samples "
+                       f"{claim.samples.text}.", reproduced_by={"method": fit.method, "samples": fit.n_best},
+                       details={**details, "search": {"method": fit.method, "n_low": fit.n_low,
+                                                      "n_high": fit.n_high}}, **kept)
     return Finding("fail", f"The printed {lt} interval {printed} for {what} matches no method "
-                   f"({listing}).", reported=iv.low.value, recomputed=shown["wilson"]["low"], details=details)
+                   f"({listing}).", details=details, **kept)
 
 
 def check(claim: Claim) -> Iterator[Finding]:

@@ -3,7 +3,6 @@ first problem into one line a person can act on."""
 
 from __future__ import annotations
 
-import difflib
 import functools
 import json
 import re
@@ -11,6 +10,7 @@ from pathlib import Path
 
 from ..errors import ClaimSchemaError
 from .load import Document, dotted
+from .suggest import choice_suggestions, field_hint
 
 SCHEMA_PATH = Path(__file__).resolve().parent.parent / "data" / "claim.schema.json"
 
@@ -58,16 +58,6 @@ def _where(err) -> tuple:
     return path
 
 
-def _homes(name: str) -> list[str]:
-    """Where ``name`` is a field: "at the top level", "under significance", ..."""
-    homes = ["at the top level"] if name in claim_schema()["properties"] else []
-    for section, sub in claim_schema()["properties"].items():
-        sub = sub.get("items", sub)
-        if name in sub.get("properties", {}):
-            homes.append(f"under {section}")
-    return homes
-
-
 def _number_advice(text: str) -> str | None:
     """Why a text that looks numeric is refused, for the YAML 1.1 surprises."""
     t = text.strip()
@@ -108,15 +98,7 @@ def describe(err, doc: Document) -> tuple[str, str]:
         allowed_names = sorted(schema.get("properties", {}))
         extra = sorted(set(err.instance) - set(allowed_names)) if isinstance(err.instance, dict) else []
         name = extra[0] if extra else "?"
-        close = difflib.get_close_matches(name, allowed_names, n=1)
-        here = f"under {path[0]}" if path else "at the top level"
-        elsewhere = [h for h in _homes(name) if h != here]
-        if close:
-            hint = f"did you mean {close[0]!r}? "
-        elif elsewhere:
-            hint = f"it belongs {' or '.join(elsewhere)}; "
-        else:
-            hint = ""
+        hint = field_hint(name, path)
         where = dotted(path) if path else "a claim"
         return (f"unknown field {name!r}",
                 f"{hint}allowed fields of {where}: {', '.join(allowed_names)}")
@@ -127,7 +109,9 @@ def describe(err, doc: Document) -> tuple[str, str]:
                 f"{'a claim' if not path else dotted(path)} needs {', '.join(schema.get('required', []))}")
     if validator == "enum":
         choices = " | ".join(str(c) for c in schema["enum"])
-        return (f"{field} is {err.instance!r}", f"allowed: {choices}")
+        close = choice_suggestions(err.instance, schema["enum"])
+        hint = f"did you mean {' or '.join(map(repr, close))}? " if close else ""
+        return (f"{field} is {err.instance!r}", f"{hint}allowed: {choices}")
     if validator in ("anyOf", "oneOf"):
         kinds = {s.get("type") for s in schema[validator]}
         instance = err.instance

@@ -16,12 +16,12 @@ validator, so that its message is the one ``claimcheck check`` would print.
 
 from __future__ import annotations
 
-import difflib
 import re
 from dataclasses import dataclass
 from typing import Any, Callable, Sequence
 
 from ..claim.load import Document, dotted
+from ..claim.suggest import corrected_path
 from ..claim.validate import claim_schema
 from ..errors import DataError
 
@@ -30,9 +30,29 @@ _TRUE = {"true", "True", "TRUE"}
 _FALSE = {"false", "False", "FALSE"}
 # Schema keywords that only describe.
 _DESCRIPTIVE = {"description", "title", "$comment", "examples", "default", "$schema", "$id"}
-_OBJECT_KEYS = {"type", "properties", "additionalProperties", "required"} | _DESCRIPTIVE
+_OBJECT_KEYS = {"type", "properties", "additionalProperties", "required", "$defs"} | _DESCRIPTIVE
 _ARRAY_KEYS = {"type", "items", "minItems"} | _DESCRIPTIVE
 _NUMBER_KEYS = {"type", "minimum", "maximum", "exclusiveMinimum", "exclusiveMaximum", "multipleOf"}
+
+
+def _plain(root: dict, node: dict, more: bool) -> dict:
+    """A schema node with a local ``$ref`` followed, and a field that is either
+    a single value or a group (a rate printed as ``83.3%`` or as
+    ``{value, interval}``) seen as the group when the column goes inside it
+    (``more``) and as the single value otherwise."""
+    while "$ref" in node and node["$ref"].startswith("#/"):
+        target = root
+        for part in node["$ref"][2:].split("/"):
+            target = target[part]
+        node = {**{k: v for k, v in node.items() if k != "$ref"}, **target}
+    alternatives = node.get("anyOf", ())
+    groups = [a for a in alternatives if a.get("type") == "object"]
+    if groups and len(groups) < len(alternatives):
+        if more:
+            return groups[0]
+        return {**{k: v for k, v in node.items() if k != "anyOf"},
+                "anyOf": [a for a in alternatives if a.get("type") != "object"]}
+    return node
 
 
 @dataclass(frozen=True)
@@ -153,7 +173,8 @@ class ColumnPlan:
         self._groups = tuple(groups.values())
 
     def _resolve(self, schema: dict, path: tuple, name: str, groups: dict) -> dict:
-        node = schema
+        """The schema node a column's path names (a group or a single value)."""
+        node = _plain(schema, schema, more=bool(path))
         for depth, key in enumerate(path):
             here = path[:depth]
             kind = node.get("type")
@@ -164,13 +185,12 @@ class ColumnPlan:
                 props = node.get("properties", {})
                 if isinstance(key, int) or key not in props:
                     known = sorted(props)
-                    close = difflib.get_close_matches(str(key), known, n=1)
-                    hint = f"did you mean {dotted(here + (close[0],))!r}? " if close else ""
+                    hint = _column_hint(path)
                     where = f"of {dotted(here)}" if here else "of a claim"
                     raise DataError(self.table, f"the column {name!r} is not in the claim vocabulary",
                                     f"{hint}fields {where}: {', '.join(known)}; "
                                     f"start a column's name with {NOTE_PREFIX} to keep notes")
-                node = props[key]
+                node = _plain(schema, props[key], more=depth + 1 < len(path))
             elif kind == "array":
                 if not isinstance(key, int):
                     raise DataError(self.table, f"the column {name!r} needs an entry number after "
@@ -227,6 +247,18 @@ class ColumnPlan:
             quick = all(k in data for k in self._root_required) and all(
                 _group_complete(data, g.path, g.required) for g in self._groups)
         return Document(name, data, texts, {(): line} if line is not None else {}), quick
+
+
+def _column_hint(path: tuple) -> str:
+    """"did you mean 'significance.sigma'? " for a misspelt or misplaced column
+    (the same rule as a claim file's fields, the whole dotted name suggested)."""
+    found = corrected_path(path)
+    if not found:
+        return ""
+    names = " or ".join(repr(dotted(p)) for p in found)
+    if len(found) == 1 and len(path) == 1 and found[0][-1] == path[-1]:
+        return f"it belongs under {found[0][0]}: name the column {names}; "
+    return f"did you mean {names}? " + ("say which; " if len(found) > 1 else "")
 
 
 def _object_known(node: dict) -> bool:

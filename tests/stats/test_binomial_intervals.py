@@ -112,3 +112,51 @@ def test_many_counts_in_one_call_match_one_at_a_time(method):
     together = [b for pair in proportion_intervals(counts, 20, 0.9, method) for b in pair]
     apart = [b for k in counts for b in proportion_interval(k, 20, 0.9, method)]
     assert together == pytest.approx(apart, abs=1e-12)
+
+
+# statsmodels' own names for the five methods.
+_STATSMODELS = {"wald": "normal", "wilson": "wilson", "clopper-pearson": "beta",
+                "agresti-coull": "agresti_coull", "jeffreys": "jeffreys"}
+
+
+@pytest.mark.parametrize("method", METHODS)
+@pytest.mark.parametrize("n", [1, 2, 7, 42, 78, 263, 10_000, 10**6])
+@pytest.mark.parametrize("level", [0.5, 0.9, 0.95, 0.99, 1 - 1e-9])
+def test_every_method_matches_statsmodels(method, n, level):
+    # Reference: statsmodels.stats.proportion.proportion_confint (the library the formulas were
+    # taken out of for speed). Its Clopper-Pearson and Jeffreys ends at k = 0 and k = n are NaN or
+    # inside (0, 1) for some versions; Brown, Cai and DasGupta (2001) set them to 0 and 1, as we do.
+    from statsmodels.stats.proportion import proportion_confint
+
+    from checker.stats.binomial_intervals import interval_arrays
+
+    counts = np.unique(np.linspace(0, n, min(n + 1, 40)).round())
+    low, high = interval_arrays(counts, n, level, method)
+    ref_low, ref_high = (np.asarray(b, dtype=float) for b in
+                         proportion_confint(counts, n, alpha=1 - level, method=_STATSMODELS[method]))
+    ref_low = np.clip(np.where(counts == 0, 0.0, np.nan_to_num(ref_low, nan=0.0)), 0, 1)
+    ref_high = np.clip(np.where(counts == n, 1.0, np.nan_to_num(ref_high, nan=1.0)), 0, 1)
+    if method in ("wald", "wilson", "agresti-coull"):
+        ref_low, ref_high = np.clip(np.asarray(proportion_confint(counts, n, alpha=1 - level,
+                                                                   method=_STATSMODELS[method]), float), 0, 1)
+    np.testing.assert_allclose(low, ref_low, rtol=1e-10, atol=1e-13)
+    np.testing.assert_allclose(high, ref_high, rtol=1e-10, atol=1e-13)
+
+
+def test_one_count_per_denominator_broadcasts():
+    from checker.stats.binomial_intervals import interval_arrays
+
+    low, high = interval_arrays([35, 35], [42, 78], 0.95, "wald")
+    assert (low[0], high[0]) == pytest.approx(proportion_interval(35, 42, 0.95, "wald"))
+    assert (low[1], high[1]) == pytest.approx(proportion_interval(35, 78, 0.95, "wald"))
+
+
+@pytest.mark.parametrize("method", METHODS)
+def test_the_plain_float_path_matches_the_array_path(method):
+    from checker.stats.binomial_intervals import interval_arrays
+
+    for n in (1, 3, 42, 1000, 10**6):
+        counts = np.unique(np.linspace(0, n, 25).round())
+        low, high = interval_arrays(counts, n, 0.95, method)
+        for k, lo, hi in zip(counts, low, high):
+            assert proportion_interval(k, n, 0.95, method) == pytest.approx((lo, hi), rel=1e-12, abs=1e-15)
