@@ -16,25 +16,49 @@ import math
 from typing import Iterator
 
 from ..claim.model import Claim, Reported
-from ..report import Finding
-from ..stats.precision import over_box
-from .common import count_for_error, metric_of, model_inputs, num, num_range
+from ..report import Finding, Shown, Span
+from ..stats.ranges import sampling_error_range, scalar_range
+from ..wording import num, span_text
+from .common import above, below, count_for_error, metric_of, model_inputs
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 WARN_RATIO = 3.0
 
 
 def _floor(claim: Claim, estimate: Reported, n: Reported, factor: tuple[float, float],
            circuits: Reported | None = None):
+    """The floor's exact range over the printed box (``stats.ranges.sampling_error_range``:
+    the variance's own extremes over the estimate's interval, not its corners).
+
+    With ``circuits`` K the variance of the mean is (v + B (N/K - 1)) / N, which falls
+    with N and with K at every value: the floor's low end is at the largest N and K,
+    its high end at the smallest, each searched over the value's interval."""
     model = metric_of(claim)
-    sd_box = claim.sd.bounds if claim.sd is not None else (None, None)
-    k_box = circuits.bounds if circuits is not None else (None, None)
+    lows, highs = [], []
+    # The variance rises with sd (metric mean), so its two ends bound it.
+    for sd in sorted(set(claim.sd.bounds)) if claim.sd is not None else (None,):
+        inputs = model_inputs(claim, sd=sd)
+        if circuits is None or model.count_field != "samples":
+            low, high = sampling_error_range(lambda v: model.variance(v, inputs),
+                                             lambda a, b: model.variance_range(a, b, inputs),
+                                             estimate.bounds, n.bounds, factor)
+        else:
+            ends = []
+            for count, k in ((n.high, circuits.high), (n.low, circuits.low)):
+                stretch = count / min(k, count) - 1.0 if k > 0 else 0.0
 
-    def se(value, count, sd, scale, k):
-        inputs = model_inputs(claim, sd=sd, circuits=k)
-        s = model.standard_error(value / scale, count, inputs)
-        return None if s is None else s * scale
+                def v_eff(v, stretch=stretch):
+                    var = model.variance(v, inputs)
+                    return None if var is None else var + model.circuit_variance(v, inputs) * stretch
 
-    return over_box(se, [estimate.bounds, n.bounds, sd_box, factor, k_box])
+                ends.append(sampling_error_range(v_eff, lambda a, b, f=v_eff: scalar_range(f, a, b),
+                                                 estimate.bounds, (count, count), factor))
+            low, high = ends[0][0], ends[1][1]
+        lows.append(low)
+        highs.append(high)
+    if not all(math.isfinite(v) for v in lows + highs):
+        return (math.nan, math.nan)
+    return (min(lows), max(highs))
 
 
 # An honest analysis estimates the circuits' spread from K circuit means, whose
@@ -105,18 +129,19 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
     if error is None or n is None:
         missing = (["stat_error"] if error is None else []) + ([model.count_field] if n is None else [])
         yield Finding("skip", f"{what}: no floor to compare with; needs {' and '.join(missing)}.",
-                      details={**details, "missing": missing})
+                      details={**details, "missing": missing}, statement="needs_inputs")
         return
     missing = [f for f in model.needs() if getattr(claim, f) is None]
     if missing:
         yield Finding("skip", f"{what}: the {model.name} model needs {', '.join(missing)}.",
-                      details={**details, "missing": missing})
+                      details={**details, "missing": missing}, statement="needs_inputs")
         return
     model_circuits = circuits if (circuits is not None and model.count_field == "samples") else None
     low, high = _floor(claim, estimate, n, factor, model_circuits)
     if not math.isfinite(low) or not high > 0:
         # e.g. a proportion printed as 1 (or beyond it, which bounds reports): no sampling error
-        yield Finding("skip", f"{what}: the model gives no positive error here.", details=details)
+        yield Finding("skip", f"{what}: the model gives no positive error here.", details=details,
+                      statement="no_model_error")
         return
     tol = claim.tolerance
     count_name = "circuits" if n.path.endswith("circuits") else "samples"
@@ -149,55 +174,69 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
         reproduce = {"circuits": round(implied_k)} if implied_k is not None else None
         implied_text = (f"{num(implied_k, 2)} circuits (no number of samples from {model_circuits.text} suffices)"
                         if implied_k is not None else "more circuits and samples than the double range holds")
+    about = {"field": error.path, "printed": Shown.of(error), "recomputed_range": Span(low, high),
+             "tolerance": tol}
     source = f"{n.text} {count_name}" + (f" from {model_circuits.text} circuits" if model_circuits is not None else "")
-    base = (f"{what}: printed stat_error {error.text} against {num_range((low, high))} that "
+    base = (f"{what}: printed stat_error {error.text} against {span_text((low, high))} that "
             f"{source} allow under the {model.name} model")
     if samples is not None:
         facts["sampling_floor_low"], facts["sampling_floor_high"] = hard
     if model_circuits is not None and plausible[0] < low:
         facts["floor_plausible_low"], facts["floor_plausible_high"] = plausible
-    if model_circuits is not None and error.high * (1 + tol) < plausible[0]:
+    if model_circuits is not None and below(error, plausible[0], tol):
         yield Finding("fail", f"{base}: smaller than sampling alone permits "
                       f"({num(ratio, 2)}x), even allowing for how little {model_circuits.text} circuits tell of "
-                      f"their own spread (at least {num_range(plausible)}); it would take about {implied_text}.",
+                      f"their own spread (at least {span_text(plausible)}); it would take about {implied_text}.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
-                      details=facts)
-    elif model_circuits is not None and error.high * (1 + tol) < low:
+                      details=facts, statement="below_floor", **about)
+    elif model_circuits is not None and below(error, low, tol):
         yield Finding("pass", f"{base}: {num(ratio, 2)}x the floor, below it but within what an estimate of "
                       f"the spread between {model_circuits.text} circuits can give (down to "
-                      f"{num_range(plausible)}).", reported=error.value, recomputed=(low + high) / 2,
-                      details=facts)
-    elif error.high * (1 + tol) < hard[0]:
+                      f"{span_text(plausible)}).", reported=error.value, recomputed=(low + high) / 2,
+                      details=facts, statement="within_floor", **about)
+    elif below(error, hard[0], tol):
         if samples is not None:
             ratio = error.value / ((hard[0] + hard[1]) / 2)
             facts["ratio"] = ratio
             implied = _count_for(v_mid, factor[0], error.value)
-            yield Finding("fail", f"{what}: printed stat_error {error.text} against {num_range(hard)} that "
+            yield Finding("fail", f"{what}: printed stat_error {error.text} against {span_text(hard)} that "
                           f"{samples.text} samples allow under the {model.name} model, even before any "
                           f"circuit-to-circuit spread: smaller than sampling alone permits ({num(ratio, 2)}x); "
                           f"it would take about {num(implied, 2)} samples.",
                           reported=error.value, recomputed=(hard[0] + hard[1]) / 2,
                           reproduced_by={"samples": round(implied)} if implied is not None else None,
-                          details=facts)
+                          details=facts, statement="below_floor", **{**about, "recomputed_range": Span(*hard)})
+            return
+        if count_name == "circuits":
+            # The per-circuit error sqrt(h (1 - h)/circuits) is the criterion's convention
+            # (Cross et al. 2019), not a floor: the circuits' own heavy-output probabilities may
+            # spread far less than h (1 - h), and each circuit's shots shrink the rest.  Without
+            # the number of shots there is no floor (issue 11, item 4).
+            yield Finding("skip", f"{base}: {num(ratio, 2)}x the per-circuit convention, which is the "
+                          "heavy-output criterion's error, not a floor; the floor of sampling alone needs "
+                          "samples (all shots).", reported=error.value, recomputed=(low + high) / 2,
+                          details={**facts, "missing": ["samples"]}, statement="per_circuit_convention", **about)
             return
         yield Finding("fail", f"{base}: smaller than sampling alone permits "
                       f"({num(ratio, 2)}x); it would take about {implied_text}.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
-                      details=facts)
-    elif error.high * (1 + tol) < low:
-        yield Finding("pass", f"{what}: printed stat_error {error.text} is below the {num_range((low, high))} "
+                      details=facts, statement="below_floor", **about)
+    elif below(error, low, tol):
+        yield Finding("pass", f"{what}: printed stat_error {error.text} is below the {span_text((low, high))} "
                       f"that the per-{count_name[:-1]} convention gives for {n.text} {count_name} "
-                      f"({num(ratio, 2)}x) but above the {num_range(hard)} floor of {samples.text} samples: "
+                      f"({num(ratio, 2)}x) but above the {span_text(hard)} floor of {samples.text} samples: "
                       f"consistent with many samples per {count_name[:-1]}.",
-                      reported=error.value, recomputed=(low + high) / 2, details=facts)
-    elif error.low > WARN_RATIO * high * (1 + tol):
+                      reported=error.value, recomputed=(low + high) / 2, details=facts,
+                      statement="per_circuit_convention", **about)
+    elif above(error, WARN_RATIO * high, tol):
         yield Finding("warn", f"{base}: {num(ratio, 2)}x the sampling floor, which suggests extra "
                       "spread (drift, circuit-to-circuit variation) the claim does not describe.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
-                      details=facts)
+                      details=facts, statement="above_floor", **about)
     else:
         yield Finding("pass", f"{base}: consistent ({num(ratio, 2)}x the floor).",
-                      reported=error.value, recomputed=(low + high) / 2, details=facts)
+                      reported=error.value, recomputed=(low + high) / 2, details=facts,
+                      statement="within_floor", **about)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
@@ -207,7 +246,9 @@ def check(claim: Claim) -> Iterator[Finding]:
         factor = claim.extrapolation.factor.bounds
     n = count_for_error(claim)
     samples = claim.samples if (n is not None and n is not claim.samples) else None
-    yield from _one(claim, claim.estimate, claim.stat_error, n, factor, "Headline", {}, samples, claim.circuits)
+    if claim.estimate is not None:
+        yield from _one(claim, claim.estimate, claim.stat_error, n, factor, "Headline", {}, samples,
+                        claim.circuits)
     for part in claim.parts:
         if part.stat_error is None:
             continue
@@ -217,3 +258,25 @@ def check(claim: Claim) -> Iterator[Finding]:
         samples = part.samples if n is not part.samples else None
         yield from _one(claim, part.estimate, part.stat_error, n, (1.0, 1.0),
                         f"Part {part.label}", {"part": part.label}, samples, part.circuits)
+
+
+SPEC = CheckSpec(
+    id="error-floor",
+    title="Statistical error against the sampling floor",
+    run=check,
+    statements={
+        "below_floor": Statement(
+            question=("How was the statistical error estimated, and how many samples stand behind it? "
+                      "As printed it is smaller than sampling alone allows."),
+            if_reproduced=("How was the statistical error estimated, and how many samples stand behind it? "
+                           "As printed it is smaller than sampling alone allows; it would follow {reproduced}."),
+            reproducible=True),
+        "above_floor": Statement(
+            question=("What besides sampling noise does the statistical error include (drift, "
+                      "circuit-to-circuit spread)? A sentence on it would help readers.")),
+        "within_floor": Statement(),
+        "per_circuit_convention": Statement(),
+        "needs_inputs": ABOUT_THE_CLAIM,
+        "no_model_error": ABOUT_THE_CLAIM,
+    },
+)

@@ -63,6 +63,15 @@ class MetricModel:
         b = self.circuit_variance(value, inputs) if inputs.circuits else 0.0
         return math.sqrt(variance_of_mean(v, b, n, inputs.circuits))
 
+    def variance_range(self, low: float, high: float, inputs: ModelInputs) -> tuple[float, float]:
+        """Minimum and maximum of the per-sample variance for a value in [low, high]
+        (nan, nan when the model cannot give it).  By default a bounded
+        one-dimensional search (``stats.ranges.scalar_range``); models with a
+        closed form override it."""
+        from ..stats.ranges import scalar_range
+
+        return scalar_range(lambda value: self.variance(value, inputs), low, high)
+
     def needs(self) -> tuple[str, ...]:
         """Claim fields the variance needs besides the estimate."""
         return ()

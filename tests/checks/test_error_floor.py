@@ -74,8 +74,9 @@ def test_heavy_output_with_one_shot_per_circuit(check_claim):
     # Cross et al. (2019): sigma = sqrt(h (1 - h) / n_circuits); 0.742 and 200 circuits give 0.0309.
     (f,) = floor_findings(check_claim, "heavy-output", "0.742", "stat_error: 0.031\ncircuits: 200\n")
     assert f.status == "pass" and f.details["count_field"] == "circuits"
+    # Issue 11, item 4: below the per-circuit convention is no contradiction without the shots.
     (f,) = floor_findings(check_claim, "heavy-output", "0.742", "stat_error: 0.005\ncircuits: 200\n")
-    assert f.status == "fail"
+    assert f.status == "skip" and f.details["missing"] == ["samples"]
 
 
 def test_heavy_output_with_many_shots_per_circuit(check_claim):
@@ -176,6 +177,24 @@ def test_a_linear_xeb_estimate_printed_as_zero_does_not_break_the_model():
     f = part_findings(text)["headline"]
     assert f.status == "pass"
     assert f.details["floor_low"] == pytest.approx(0.001, rel=1e-12)
+
+
+def test_a_proportion_at_one_half_uses_the_peak_of_the_binomial_variance(check_claim):
+    # Issue 11: "0.5 +- 0.153" from 100 samples.  Over p in [0.45, 0.55] the floor
+    # sqrt(p (1 - p)/100) peaks at 0.05 (p = 1/2, inside the interval), not at the corners' 0.0497;
+    # 0.153 is within the 2% tolerance of 3 x 0.05, so it gets no note.
+    (f,) = floor_findings(check_claim, "proportion", "0.5", "stat_error: 0.153\nsamples: 100\n")
+    assert f.details["floor_high"] == pytest.approx(0.05)
+    assert f.status == "pass"
+
+
+def test_a_published_style_heavy_output_claim_is_not_below_a_floor(check_claim):
+    # Issue 11, item 4: heavy output 0.757 over 100 circuits with a printed two-sigma lower bound of
+    # 0.746 (error 0.0055) is 0.13x the per-circuit convention sqrt(h (1 - h)/100) = 0.0429
+    # (Cross et al., Phys. Rev. A 100, 032328 (2019)); that convention is not a floor, so no flag.
+    (f,) = floor_findings(check_claim, "heavy-output", "0.757", "stat_error: 0.0055\ncircuits: 100\n")
+    assert f.status != "fail"
+    assert f.recomputed == pytest.approx(math.sqrt(0.757 * 0.243 / 100), rel=2e-3)
 
 
 # --- the circuit-to-circuit term -------------------------------------------------------------
