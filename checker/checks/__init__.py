@@ -13,7 +13,7 @@ from typing import Iterable, Mapping
 from ..claim.model import Claim
 from ..report import Finding, Report
 from . import bounds, error_floor, look_elsewhere, significance
-from . import combination, heterogeneity, extrapolation, error_budget, interval, granularity  # noqa: E402,I001
+from . import combination, heterogeneity, extrapolation, error_budget, interval, granularity, rates  # noqa: E402,I001
 from .spec import CheckSpec, Statement
 
 SPECS: tuple[CheckSpec, ...] = (
@@ -27,6 +27,7 @@ SPECS: tuple[CheckSpec, ...] = (
     error_budget.SPEC,
     interval.SPEC,
     granularity.SPEC,
+    rates.SPEC,
 )
 
 # id -> spec, in the order above; the CLI's --only reads its keys.  A test may

@@ -29,6 +29,7 @@ from typing import Iterator
 from ..claim.model import Claim
 from ..report import Finding, Shown, Span
 from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval, proportion_intervals
+from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.granularity import granularity
 from ..stats.interval import sigma_from_interval, z_for_level
 from ..stats.precision import agrees, gap, over_box
@@ -41,7 +42,7 @@ OTHER_LEVELS = ((math.erf(1 / math.sqrt(2)), "1 sigma (68.27%)"), (0.90, "90%"),
 MAX_COUNTS = 100  # whole counts to try one by one before treating the count as continuous
 
 
-def _level_text(level: float) -> str:
+def level_text(level: float) -> str:
     for value, words in OTHER_LEVELS:
         if abs(value - level) < 1e-9:
             return words
@@ -60,7 +61,7 @@ def _sigma_finding(claim: Claim, tol: float, asymmetric: bool, below, above) -> 
     iv = claim.interval
     level = iv.level.value
     stat = claim.stat_error
-    lt = _level_text(level)
+    lt = level_text(level)
 
     def implied(lev):
         if asymmetric:
@@ -136,7 +137,7 @@ def _continuous(claim: Claim, method: str, level: float):
 def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
     iv = claim.interval
     level = iv.level.value
-    lt = _level_text(level)
+    lt = level_text(level)
     counts = _counts(claim)
     n_value = claim.samples.value
     slack = tol * (iv.high.value - iv.low.value) / 2
@@ -203,9 +204,40 @@ def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
                            reported=iv.low.value, recomputed=shown[other[0]]["low"],
                            reproduced_by={"method": other[0], "level": round(lev, 6)}, details=details,
                            **about)
+    return _other_denominator(claim, level, lt, printed, what, listing, slack, shown, details, about)
+
+
+def _other_denominator(claim, level, lt, printed, what, listing, slack, shown, details, about) -> Finding:
+    """No method gives the print with the stated samples: an interval wider than
+    every method is a design effect (a note); otherwise name the whole N with
+    which a method gives it (stats/denominator_search.py)."""
+    iv = claim.interval
+    kept = dict(reported=iv.low.value, recomputed=shown["wilson"]["low"], **about)
+    half = (iv.high.value - iv.low.value) / 2
+    widest = max(v["high"] - v["low"] for v in shown.values())
+    n = claim.samples.value
+    n_eff = effective_sample_size(claim.estimate.value, half, level) if 0 < claim.estimate.value < 1 else 0.0
+    if 2 * half > widest and 0.0 < n_eff < math.inf and math.isfinite(n / n_eff):
+        deff = n / n_eff
+        return Finding("warn", f"The printed {lt} interval {printed} for {what} is {2 * half / widest:.2g} times "
+                       f"as wide as the widest binomial interval ({listing}); it implies about {n_eff:.3g} "
+                       f"effective items, a design effect of {deff:.3g}. A clustered analysis is a legitimate "
+                       "reason; the paper should say so.",
+                       details={**details, "effective_samples": n_eff, "design_effect": deff},
+                       **{**kept, "statement": "design_effect"})
+    search = search_denominator(claim.estimate.bounds, iv.low.bounds, iv.high.bounds, level, slack)
+    if search.fits:
+        fit = search.fits[0]
+        span = (f"N = {fit.n_low}" if fit.n_low == fit.n_high
+                else f"N = {fit.n_low} to {fit.n_high} (closest {fit.n_best})")
+        return Finding("fail", f"The printed {lt} interval {printed} for {what} matches no method ({listing}); "
+                       f"the {NAMES[fit.method]} interval gives it with {span} instead of the printed samples "
+                       f"{claim.samples.text}.", reproduced_by={"method": fit.method, "samples": fit.n_best},
+                       details={**details, "search": {"method": fit.method, "n_low": fit.n_low,
+                                                      "n_high": fit.n_high}},
+                       **{**kept, "statement": "denominator"})
     return Finding("fail", f"The printed {lt} interval {printed} for {what} matches no method "
-                   f"({listing}).", reported=iv.low.value, recomputed=shown["wilson"]["low"], details=details,
-                   **about)
+                   f"({listing}).", details=details, **kept)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
@@ -245,6 +277,14 @@ SPEC = CheckSpec(
         "method": Statement(
             question="Which method produced the printed interval? None of the usual methods reproduces it.",
             if_reproduced="Was the interval made {reproduced}? Please name the method beside it.",
+            reproducible=True),
+        "design_effect": Statement(
+            question=("The printed interval is wider than any binomial interval for the printed samples. "
+                      "Was it made from a clustered analysis, and how large is the design effect?")),
+        "denominator": Statement(
+            question="How many items stand behind the printed interval? No method gives it with the printed samples.",
+            if_reproduced=("How many items stand behind the printed interval? It would follow {reproduced}, "
+                           "not with the printed samples."),
             reproducible=True),
         "no_stat_error": ABOUT_THE_CLAIM,
         "needs_inputs": ABOUT_THE_CLAIM,

@@ -4,7 +4,7 @@ the float together with the interval its printed digits stand for."""
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Any
 
 from ..errors import ClaimSchemaError
@@ -125,6 +125,26 @@ class BudgetItem:
 
 
 @dataclass(frozen=True)
+class CountsTable:
+    """A table of counts (a confusion matrix) as printed: whole numbers."""
+
+    true_positive: Reported
+    false_positive: Reported
+    false_negative: Reported
+    true_negative: Reported
+
+
+@dataclass(frozen=True)
+class PrintedRate:
+    """A rate printed from a counts table (``name`` as in the vocabulary:
+    ``recall``, ``specificity``, ...), with its interval when one is printed."""
+
+    name: str
+    value: Reported
+    interval: Interval | None = None
+
+
+@dataclass(frozen=True)
 class Claim:
     """One benchmark claim, as printed."""
 
@@ -150,6 +170,8 @@ class Claim:
     integer_data: bool = False
     items: Reported | None = None
     tolerance: float = DEFAULT_TOLERANCE
+    counts_table: CountsTable | None = None
+    rates: tuple[PrintedRate, ...] = ()
 
     @property
     def qubit_count(self) -> int | None:
@@ -217,15 +239,8 @@ class _Builder:
             upcrossing_sigma=self.number(sig_raw, ("significance", "upcrossing_sigma")),
             stated=frozenset(k for k in ("sided", "systematics", "error_at") if sig_raw.get(k)),
         )
-        interval = None
-        if d.get("interval"):
-            iv = d["interval"]
-            level = self.number(iv, ("interval", "level")) or Reported.exact_value(0.95, "interval.level")
-            if not 0.0 < level.value < 1.0:
-                self.fail(("interval", "level"), f"level must lie between 0 and 1, got {level.text}",
-                          "write 0.95 or 95%")
-            interval = Interval(self.number(iv, ("interval", "low")),
-                                self.number(iv, ("interval", "high")), level)
+        interval = self.interval(d.get("interval"), ("interval",))
+        counts_table, rates = self.counts_and_rates(d)
         for key, limit in (("parts", MAX_PARTS), ("error_budget", MAX_BUDGET_ITEMS)):
             listed = d.get(key) or ()
             if len(listed) > limit:
@@ -272,7 +287,51 @@ class _Builder:
             combination=combination, extrapolation=extrapolation, error_budget=budget,
             integer_data=bool(d.get("integer_data", False)), items=num("items"),
             tolerance=tolerance.value if tolerance is not None else DEFAULT_TOLERANCE,
+            counts_table=counts_table, rates=rates,
         )
+
+    def interval(self, iv: dict | None, path: tuple) -> Interval | None:
+        if not iv:
+            return None
+        level = self.number(iv, path + ("level",)) or Reported.exact_value(0.95, dotted(path + ("level",)))
+        if not 0.0 < level.value < 1.0:
+            self.fail(path + ("level",), f"level must lie between 0 and 1, got {level.text}",
+                      "write 0.95 or 95%")
+        return Interval(self.number(iv, path + ("low",)), self.number(iv, path + ("high",)), level)
+
+    def counts_and_rates(self, d: dict) -> tuple[CountsTable | None, tuple[PrintedRate, ...]]:
+        table = None
+        if d.get("counts_table"):
+            raw = d["counts_table"]
+            cells = {}
+            for name in ("true_positive", "false_positive", "false_negative", "true_negative"):
+                path = ("counts_table", name)
+                cell = self.number(raw, path)
+                if cell.text.endswith("%") or cell.value < 0 or cell.value != math.floor(cell.value):
+                    self.fail(path, f"{name} must be a whole number of at least 0, got {cell.text}",
+                              "counts are whole numbers such as 0, 35 or 1200")
+                # A count in a table is exact however it is printed.
+                cells[name] = replace(cell, low=cell.value, high=cell.value)
+            if sum(c.value for c in cells.values()) < 1:
+                self.fail(("counts_table",), "counts_table holds no cases (all four counts are 0)",
+                          "give the table's counts as printed")
+            table = CountsTable(**cells)
+        rates = []
+        for name, raw in (d.get("rates") or {}).items():
+            path = ("rates", name)
+            if isinstance(raw, dict):
+                value = self.number(raw, path + ("value",))
+                interval = self.interval(raw.get("interval"), path + ("interval",))
+            else:
+                value, interval = self.number(d["rates"], path), None
+            if not 0.0 <= value.value <= 1.0:
+                self.fail(path, f"the rate {name} must lie between 0 and 1, "
+                          f"got {value.text}", "write 0.8333 or 83.33%")
+            rates.append(PrintedRate(name, value, interval))
+        if rates and table is None:
+            self.fail(("rates",), "rates are printed but no counts_table gives the counts they come from",
+                      "add counts_table: {true_positive, false_positive, false_negative, true_negative}")
+        return table, tuple(rates)
 
 
 def _shortened(text: str, keep: int = 40) -> str:

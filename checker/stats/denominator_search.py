@@ -28,7 +28,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .binomial_intervals import METHODS, interval_arrays
+from .binomial_intervals import METHODS, interval_arrays, proportion_intervals
 from .interval import z_for_level
 
 MAX_CHECKED = 400   # N' checked one by one in a run of candidates
@@ -79,10 +79,23 @@ def _misfit(method, rates, n, level, low_box, high_box):
 
 
 def _widths(method, rates, n, level):
-    p = np.asarray(rates, dtype=float)
-    lo, hi = interval_arrays(np.clip(p, 0.0, 1.0) * n, np.full(p.shape, float(n)), level, method)
-    width = hi - lo
-    return float(width.min()), float(width.max())
+    widths = [hi - lo for lo, hi in proportion_intervals([min(max(p, 0.0), 1.0) * n for p in rates],
+                                                          n, level, method)]
+    return min(widths), max(widths)
+
+
+def _bracket(pred, guess: float | None, n_max: int) -> tuple[int, int]:
+    """[lo, hi] about ``guess`` with pred(lo) false (or lo = 1) and pred(hi)
+    true (or hi = n_max), for :func:`_first`; [1, n_max] without a guess."""
+    if guess is None or not math.isfinite(guess):
+        return 1, n_max
+    lo = max(1, min(n_max, int(guess / 100)))
+    hi = max(1, min(n_max, int(guess * 100) + 10))
+    if lo > 1 and pred(lo):
+        lo = 1
+    if hi < n_max and not pred(hi):
+        hi = n_max
+    return lo, hi
 
 
 def _first(pred, lo: int, hi: int) -> int:
@@ -124,7 +137,7 @@ def search_denominator(rate: tuple[float, float], low: tuple[float, float], high
     -------
     DenominatorSearch
     """
-    rates = np.unique(np.linspace(max(rate[0], 0.0), min(rate[1], 1.0), RATE_POINTS))
+    rates = [float(r) for r in np.unique(np.linspace(max(rate[0], 0.0), min(rate[1], 1.0), RATE_POINTS))]
     low_box = (low[0] - slack, low[1] + slack)
     high_box = (high[0] - slack, high[1] + slack)
     width_low = max(high[0] - low[1] - 2 * slack, 0.0)
@@ -141,12 +154,24 @@ def search_denominator(rate: tuple[float, float], low: tuple[float, float], high
                               DenominatorFit(method, size, size, size, float(lo[0]), float(hi[0]), label)))
                 labelled.add((method, size))
     sampled = False
+    # The Wald N for the printed width: every method's candidates lie within a
+    # factor of it except at tiny N, and the bisections start from a bracket
+    # about it (checked, and widened to [1, n_max] when it does not hold).
+    middle = (rates[0] + rates[-1]) / 2
+    z = z_for_level(level)
+    half = (width_low + width_high) / 4
+    try:
+        guess = z * z * middle * (1 - middle) / (half * half) if half > 0 and 0 < middle < 1 else None
+    except (ZeroDivisionError, OverflowError):  # a width too small or too large to square
+        guess = None
     for order, method in enumerate(methods):
         # Widths fall as N grows: the candidates are the N whose narrowest
         # width is at most the widest printed one and whose widest width is at
         # least the narrowest printed one.
-        start = _first(lambda m: _widths(method, rates, m, level)[0] <= width_high, 1, n_max)
-        stop = _first(lambda m: _widths(method, rates, m, level)[1] < width_low, 1, n_max) - 1
+        narrow_enough = lambda m: _widths(method, rates, m, level)[0] <= width_high  # noqa: E731
+        too_narrow = lambda m: _widths(method, rates, m, level)[1] < width_low  # noqa: E731
+        start = _first(narrow_enough, *_bracket(narrow_enough, guess, n_max))
+        stop = _first(too_narrow, *_bracket(too_narrow, guess, n_max)) - 1
         if start > stop:
             continue
         if stop - start + 1 > MAX_CHECKED:
@@ -181,4 +206,9 @@ def effective_sample_size(rate: float, half_width: float, level: float) -> float
     z = z_for_level(level)
     if not half_width > 0:
         return math.inf
-    return z * z * rate * (1.0 - rate) / (half_width * half_width)
+    try:
+        return z * z * rate * (1.0 - rate) / (half_width * half_width)
+    except OverflowError:  # a half-width near the double range's edge
+        return 0.0
+    except ZeroDivisionError:  # a half-width whose square underflows
+        return math.inf

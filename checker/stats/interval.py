@@ -2,11 +2,13 @@
 
 from __future__ import annotations
 
+import functools
 import math
 
 from scipy.special import erfinv, ndtri
 
 
+@functools.lru_cache(maxsize=256)  # pure; a claim asks for the same few levels many times
 def z_for_level(level: float) -> float:
     """Two-sided Gaussian critical value: 1.96 for 0.95 (PDG, "Statistics").
 

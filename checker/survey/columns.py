@@ -30,9 +30,29 @@ _TRUE = {"true", "True", "TRUE"}
 _FALSE = {"false", "False", "FALSE"}
 # Schema keywords that only describe.
 _DESCRIPTIVE = {"description", "title", "$comment", "examples", "default", "$schema", "$id"}
-_OBJECT_KEYS = {"type", "properties", "additionalProperties", "required"} | _DESCRIPTIVE
+_OBJECT_KEYS = {"type", "properties", "additionalProperties", "required", "$defs"} | _DESCRIPTIVE
 _ARRAY_KEYS = {"type", "items", "minItems"} | _DESCRIPTIVE
 _NUMBER_KEYS = {"type", "minimum", "maximum", "exclusiveMinimum", "exclusiveMaximum", "multipleOf"}
+
+
+def _plain(root: dict, node: dict, more: bool) -> dict:
+    """A schema node with a local ``$ref`` followed, and a field that is either
+    a single value or a group (a rate printed as ``83.3%`` or as
+    ``{value, interval}``) seen as the group when the column goes inside it
+    (``more``) and as the single value otherwise."""
+    while "$ref" in node and node["$ref"].startswith("#/"):
+        target = root
+        for part in node["$ref"][2:].split("/"):
+            target = target[part]
+        node = {**{k: v for k, v in node.items() if k != "$ref"}, **target}
+    alternatives = node.get("anyOf", ())
+    groups = [a for a in alternatives if a.get("type") == "object"]
+    if groups and len(groups) < len(alternatives):
+        if more:
+            return groups[0]
+        return {**{k: v for k, v in node.items() if k != "anyOf"},
+                "anyOf": [a for a in alternatives if a.get("type") != "object"]}
+    return node
 
 
 @dataclass(frozen=True)
@@ -153,7 +173,8 @@ class ColumnPlan:
         self._groups = tuple(groups.values())
 
     def _resolve(self, schema: dict, path: tuple, name: str, groups: dict) -> dict:
-        node = schema
+        """The schema node a column's path names (a group or a single value)."""
+        node = _plain(schema, schema, more=bool(path))
         for depth, key in enumerate(path):
             here = path[:depth]
             kind = node.get("type")
@@ -169,7 +190,7 @@ class ColumnPlan:
                     raise DataError(self.table, f"the column {name!r} is not in the claim vocabulary",
                                     f"{hint}fields {where}: {', '.join(known)}; "
                                     f"start a column's name with {NOTE_PREFIX} to keep notes")
-                node = props[key]
+                node = _plain(schema, props[key], more=depth + 1 < len(path))
             elif kind == "array":
                 if not isinstance(key, int):
                     raise DataError(self.table, f"the column {name!r} needs an entry number after "

@@ -135,3 +135,33 @@ def test_an_interval_for_a_mean_does_not_load_statsmodels():
     """)
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert out.stdout.split() == ["False"]
+
+
+def test_an_interval_made_with_another_samples_names_that_n():
+    # By hand (common practice, Wald p +- 1.96 sqrt(p(1 - p)/N)): 0.8333 with N = 78 gives
+    # 0.7506-0.9160; the claim says 42 samples, with which no method gives it. Within the claim's
+    # tolerance (2% of the half-width on each end) N = 75 to 81 give it too.
+    found = findings("""
+        title: Invented recall (invented numbers)
+        metric: proportion
+        estimate: 0.8333
+        samples: 42
+        interval: {low: 0.7506, high: 0.9160, level: 0.95}
+    """)["method"]
+    assert found.status == "fail"
+    assert dict(found.reproduced_by) == {"method": "wald", "samples": 78}
+    assert "gives it with N = 75 to 81 (closest 78) instead of the printed samples 42" in found.message
+
+
+def test_an_interval_far_wider_than_binomial_is_a_design_effect_note():
+    # Kish (1965), Survey Sampling, Sec. 8.2 (from memory): design effect = N / N_eff.
+    found = findings("""
+        title: Invented clustered accuracy (invented numbers)
+        metric: proportion
+        estimate: 0.700
+        samples: 400
+        interval: {low: 0.570, high: 0.830, level: 0.95}
+    """)["method"]
+    assert found.status == "warn"
+    n_eff = 1.959963984540054 ** 2 * 0.7 * 0.3 / 0.13 ** 2
+    assert found.details["design_effect"] == pytest.approx(400 / n_eff, rel=1e-9)

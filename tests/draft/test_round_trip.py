@@ -21,7 +21,13 @@ from checker.cli import run
 from checker.draft import draft_text, make_loadable
 
 ROOT = Path(__file__).resolve().parents[2]
-EXAMPLES = sorted(p for p in (ROOT / "claims_examples").iterdir() if p.suffix in (".yaml", ".json"))
+# Fields claimcheck draft does not read from prose yet (README, "Drafting a claim"): examples that
+# hold them are left out of the round trips, and test_drafts_say_nothing_of_a_table_of_counts checks
+# that a draft of such prose invents no counts or rates.
+NOT_DRAFTED = {"counts_table", "rates"}
+ALL_EXAMPLES = sorted(p for p in (ROOT / "claims_examples").iterdir() if p.suffix in (".yaml", ".json"))
+EXAMPLES = [p for p in ALL_EXAMPLES if not NOT_DRAFTED & set(load_document(p).data)]
+TABLE_EXAMPLES = [p for p in ALL_EXAMPLES if p not in EXAMPLES]
 
 METRIC_WORDS = {
     "linear-xeb": "linear cross-entropy benchmarking (XEB) fidelity",
@@ -259,3 +265,13 @@ def test_round_trip_drafts_check_like_the_originals(tmp_path):
             verdicts.append((run(["check", str(claim), "--verdict-only"], buffer, io.StringIO()),
                              buffer.getvalue().split(";")[0]))
         assert verdicts[0] == verdicts[1], path.name
+
+
+@pytest.mark.parametrize("path", TABLE_EXAMPLES, ids=[p.name for p in TABLE_EXAMPLES])
+def test_drafts_say_nothing_of_a_table_of_counts(path):
+    original = load_document(path)
+    text = prose({k: v for k, v in original.data.items() if k not in NOT_DRAFTED}, original.texts, 0)
+    text += "\nThe table holds 35 true positives, 4 false positives, 7 false negatives and 32 true negatives.\n"
+    _, yaml_text = make_loadable(draft_text(text, f"{path.stem}.md"))
+    drafted = parse_text(yaml_text, "draft.yaml", "yaml")
+    assert not NOT_DRAFTED & set(drafted.data)

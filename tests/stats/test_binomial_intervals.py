@@ -149,3 +149,14 @@ def test_one_count_per_denominator_broadcasts():
     low, high = interval_arrays([35, 35], [42, 78], 0.95, "wald")
     assert (low[0], high[0]) == pytest.approx(proportion_interval(35, 42, 0.95, "wald"))
     assert (low[1], high[1]) == pytest.approx(proportion_interval(35, 78, 0.95, "wald"))
+
+
+@pytest.mark.parametrize("method", METHODS)
+def test_the_plain_float_path_matches_the_array_path(method):
+    from checker.stats.binomial_intervals import interval_arrays
+
+    for n in (1, 3, 42, 1000, 10**6):
+        counts = np.unique(np.linspace(0, n, 25).round())
+        low, high = interval_arrays(counts, n, 0.95, method)
+        for k, lo, hi in zip(counts, low, high):
+            assert proportion_interval(k, n, 0.95, method) == pytest.approx((lo, hi), rel=1e-12, abs=1e-15)

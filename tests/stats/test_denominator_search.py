@@ -77,3 +77,26 @@ def test_effective_sample_size_inverts_the_wald_half_width():
     half = 1.959963984540054 * np.sqrt(0.3 * 0.7 / 250)
     assert effective_sample_size(0.3, half, 0.95) == pytest.approx(250, rel=1e-12)
     assert effective_sample_size(0.3, 0.0, 0.95) == float("inf")
+
+
+from hypothesis import given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+_ANY = st.floats(min_value=0.0, max_value=1.0, allow_subnormal=True) | st.sampled_from(
+    [0.0, 1.0, 5e-324, 1e-300, 3.93e-265, 1 - 1e-16, 0.5])
+
+
+@settings(max_examples=300, deadline=None)
+@given(rate=_ANY, low=_ANY, high=_ANY, level=st.sampled_from([0.5, 0.95, 1 - 1e-12, 1e-9]),
+       slack=st.sampled_from([0.0, 1e-300, 0.01]))
+def test_any_printed_numbers_give_a_bounded_answer(rate, low, high, level, slack):
+    # Hostile printed intervals (zero width, subnormal, reversed, at 0 and 1) never raise, and every
+    # fit found is a whole N in range that the method really gives within the slack.
+    from checker.stats.binomial_intervals import proportion_interval
+
+    found = search_denominator((rate, rate), (low, low), (high, high), level, slack, n_max=10**7)
+    for fit in found.fits:
+        assert 1 <= fit.n_low <= fit.n_best <= fit.n_high <= 10**7
+        lo, hi = proportion_interval(rate * fit.n_best, fit.n_best, level, fit.method)
+        assert low - slack <= lo <= low + slack and high - slack <= hi <= high + slack
+    assert effective_sample_size(rate, abs(high - low) / 2, level) >= 0

@@ -132,3 +132,24 @@ def test_quick_test_agrees_with_the_schema_validator(row):
     except DataError:
         return  # a gap in the parts entries: reported before the schema
     assert quick == _validator().is_valid(doc.data)
+
+
+def test_rates_are_dotted_columns_as_a_bare_value_or_a_value_with_an_interval():
+    header = ["title", "metric", "estimate", "counts_table.true_positive", "counts_table.false_positive",
+              "counts_table.false_negative", "counts_table.true_negative", "rates.specificity",
+              "rates.recall.value", "rates.recall.interval.low", "rates.recall.interval.high"]
+    doc, _ = doc_of(["T", "proportion", "85.90%", "35", "4", "7", "32", "88.89%", "83.33%", "75.06%", "91.60%"],
+                    header=header)
+    assert doc.data["rates"] == {"specificity": "88.89%",
+                                 "recall": {"value": "83.33%", "interval": {"low": "75.06%", "high": "91.60%"}}}
+    claim = claim_from_document(doc)
+    assert [r.name for r in claim.rates] == ["specificity", "recall"]
+    assert claim.rates[1].interval.high.text == "91.60%"
+
+
+@pytest.mark.parametrize("column, says", [("rates.recall.interval", "names a group of fields"),
+                                          ("rates.recal", "did you mean 'rates.recall'"),
+                                          ("rates.specificity.value.low", "holds a single value")])
+def test_rate_column_mistakes_are_one_line(column, says):
+    with pytest.raises(DataError, match=says):
+        ColumnPlan(["title", "metric", "estimate", column], "t.csv")
