@@ -17,11 +17,13 @@ def metric_of(claim: Claim) -> MetricModel:
     return METRICS[claim.metric]
 
 
-def model_inputs(claim: Claim, sd: float | None = None) -> ModelInputs:
+def model_inputs(claim: Claim, sd: float | None = None, circuits: float | None = None) -> ModelInputs:
+    """The metric model's inputs; ``circuits`` (K of the error sqrt(v/N + B (1/K - 1/N)))
+    only where the caller says which count of circuits the samples come from."""
     if sd is None and claim.sd is not None:
         sd = claim.sd.value
-    return ModelInputs(dimension=dimension_of(claim.qubit_count) if claim.metric == "linear-xeb" else None,
-                       sd=sd)
+    xeb = claim.metric in ("linear-xeb", "log-xeb")
+    return ModelInputs(dimension=dimension_of(claim.qubit_count) if xeb else None, sd=sd, circuits=circuits)
 
 
 def count_for_error(claim: Claim) -> Reported | None:

@@ -43,7 +43,7 @@ OTHER_LEVELS = ((math.erf(1 / math.sqrt(2)), "1 sigma (68.27%)"), (0.90, "90%"),
 MAX_COUNTS = 100  # whole counts to try one by one before treating the count as continuous
 
 
-def _level_text(level: float) -> str:
+def level_text(level: float) -> str:
     for value, words in OTHER_LEVELS:
         if abs(value - level) < 1e-9:
             return words
@@ -62,7 +62,7 @@ def _sigma_finding(claim: Claim, tol: float, asymmetric: bool, below, above) -> 
     iv = claim.interval
     level = iv.level.value
     stat = claim.stat_error
-    lt = _level_text(level)
+    lt = level_text(level)
 
     def implied(lev):
         if asymmetric:
@@ -138,7 +138,7 @@ def _continuous(claim: Claim, method: str, level: float):
 def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
     iv = claim.interval
     level = iv.level.value
-    lt = _level_text(level)
+    lt = level_text(level)
     counts = _counts(claim)
     n_value = claim.samples.value
     slack = tol * (iv.high.value - iv.low.value) / 2
@@ -235,7 +235,8 @@ def _other_denominator(claim, level, lt, printed, what, listing, slack, shown, d
                        f"the {NAMES[fit.method]} interval gives it with {span} instead of the printed samples "
                        f"{claim.samples.text}.", reproduced_by={"method": fit.method, "samples": fit.n_best},
                        details={**details, "search": {"method": fit.method, "n_low": fit.n_low,
-                                                      "n_high": fit.n_high}}, **kept)
+                                                      "n_high": fit.n_high}},
+                       **{**kept, "statement": "denominator"})
     return Finding("fail", f"The printed {lt} interval {printed} for {what} matches no method "
                    f"({listing}).", details=details, **kept)
 
@@ -282,8 +283,13 @@ SPEC = CheckSpec(
             if_reproduced="Was the interval made {reproduced}? Please name the method beside it.",
             reproducible=True),
         "design_effect": Statement(
-            question="Is the printed interval from a clustered analysis? It is wider than any binomial "
-                     "interval for the printed samples; please say how it was made."),
+            question=("The printed interval is wider than any binomial interval for the printed samples. "
+                      "Was it made from a clustered analysis, and how large is the design effect?")),
+        "denominator": Statement(
+            question="How many items stand behind the printed interval? No method gives it with the printed samples.",
+            if_reproduced=("How many items stand behind the printed interval? It would follow {reproduced}, "
+                           "not with the printed samples."),
+            reproducible=True),
         "no_stat_error": ABOUT_THE_CLAIM,
         "needs_inputs": ABOUT_THE_CLAIM,
         "no_estimate": ABOUT_THE_CLAIM,

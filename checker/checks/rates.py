@@ -37,8 +37,8 @@ from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval
 from ..stats.confusion import CELLS, DEFINITIONS, MARGINS, NUMERATORS, margins, rate_fraction, total
 from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.precision import agrees, gap
-from .interval import OTHER_LEVELS, _level_text
 from ..wording import like
+from .interval import OTHER_LEVELS, level_text
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 
@@ -107,7 +107,7 @@ def _interval_finding(claim: Claim, rate: PrintedRate, table: dict[str, int]) ->
                 iv.low.low, iv.high.high), tolerance=claim.tolerance)
     printed = f"[{iv.low.text}, {iv.high.text}]"
     level = iv.level.value
-    lt = _level_text(level)
+    lt = level_text(level)
     if not definition.binomial:
         return Finding("skip", f"The printed {lt} interval {printed} of the {words} is not checked: the {words} "
                        "is not a proportion of one set of cases, so no binomial method applies.",
@@ -170,12 +170,11 @@ def _interval_finding(claim: Claim, rate: PrintedRate, table: dict[str, int]) ->
     if 2 * half > widest and 0.0 < n_eff < math.inf and math.isfinite(n / n_eff):
         deff = n / n_eff
         details.update(effective_samples=n_eff, design_effect=deff)
-        kept["statement"] = "design_effect"
         return Finding("warn", f"The printed {lt} interval {printed} of the {words} is {2 * half / widest:.2g} "
                        f"times as wide as the widest binomial interval for {what} ({listing}); it implies about "
                        f"{n_eff:.3g} effective cases, a design effect of {deff:.3g}. A clustered analysis "
                        "(several cases from one person or site) is a legitimate reason; the paper should say so.",
-                       details=details, **kept)
+                       details=details, **{**kept, "statement": "rate_design_effect"})
     if search.fits:
         fit = search.fits[0]
         span = (f"N = {fit.n_low}" if fit.n_low == fit.n_high
@@ -197,7 +196,7 @@ def check(claim: Claim) -> Iterator[Finding]:
     table = _table(claim)
     if not claim.rates:
         yield Finding("skip", "A counts_table is given but no rates are printed from it.",
-                      details={"missing": ["rates"]}, statement="needs_inputs")
+                      field="counts_table", details={"missing": ["rates"]}, statement="no_rates")
         return
     for rate in claim.rates:
         yield _value_finding(claim, rate, table)
@@ -212,18 +211,18 @@ SPEC = CheckSpec(
     quotes="value",
     statements={
         "rate_value": Statement(
-            question="Which counts give {what}? The table of counts gives another value.",
-            if_reproduced="Is {what} computed {reproduced}? The table of counts gives another value.",
+            question="How was {what} computed from the table of counts? The table gives another value.",
+            if_reproduced=("Is {what} the rate the paper names? The table gives it as another rate "
+                           "({reproduced})."),
             reproducible=True),
         "rate_interval": Statement(
-            question="Which method and which number of cases produced {what}? None of the usual methods "
-                     "reproduces it with the rate's own denominator.",
-            if_reproduced="Was {what} computed {reproduced}? With the rate's own denominator no usual "
-                          "method gives it.",
+            question="Which method and which denominator produced {what}? None of the usual methods reproduces it.",
+            if_reproduced="Was {what} made {reproduced}? Please name the method and the denominator beside it.",
             reproducible=True),
-        "design_effect": Statement(
-            question="Is {what} from a clustered analysis (several cases from one person or site)? It is "
-                     "wider than any binomial interval for the table's counts; please say how it was made."),
+        "rate_design_effect": Statement(
+            question=("{what} is wider than any binomial interval for its denominator. Was it made from a "
+                      "clustered analysis, and how large is the design effect?")),
+        "no_rates": Statement(),
         "needs_inputs": ABOUT_THE_CLAIM,
     },
 )

@@ -152,8 +152,18 @@ def _refuse_deep_nesting(text: str, name: str) -> None:
     """
     if _depth_bound(text) <= MAX_DEPTH:
         return
+    try:
+        _walk_depth(text, name, SAFE_LOADER)
+    except yaml.MarkedYAMLError as exc:
+        # libyaml's refusal is read again by the reference loader (see _compose_nodes).
+        if SAFE_LOADER is yaml.SafeLoader or "nesting depth" in (exc.problem or ""):
+            raise
+        _walk_depth(text, name, yaml.SafeLoader)
+
+
+def _walk_depth(text: str, name: str, loader) -> None:
     depth = 0
-    for event in yaml.parse(text, Loader=SAFE_LOADER):
+    for event in yaml.parse(text, Loader=loader):
         if isinstance(event, (yaml.MappingStartEvent, yaml.SequenceStartEvent)):
             depth += 1
             if depth > MAX_DEPTH:
@@ -164,10 +174,26 @@ def _refuse_deep_nesting(text: str, name: str) -> None:
             depth -= 1
 
 
+def _compose_nodes(text: str, name: str) -> list:
+    """The documents' nodes, by libyaml where it is built in; a text libyaml
+    refuses is read again by the pure-Python loader, the reference, so that
+    what is accepted and each message do not depend on the build (libyaml
+    refuses escapes such as "\\ud800" that the reference reads)."""
+    _refuse_deep_nesting(text, name)
+    if SAFE_LOADER is not yaml.SafeLoader:
+        try:
+            return list(yaml.compose_all(text, Loader=SAFE_LOADER))
+        except yaml.MarkedYAMLError as exc:
+            if "nesting depth" in (exc.problem or ""):
+                raise
+        except yaml.YAMLError:
+            pass
+    return list(yaml.compose_all(text, Loader=yaml.SafeLoader))
+
+
 def _compose(text: str, name: str):
     try:
-        _refuse_deep_nesting(text, name)
-        nodes = list(yaml.compose_all(text, Loader=SAFE_LOADER))
+        nodes = _compose_nodes(text, name)
     except yaml.MarkedYAMLError as exc:
         mark = exc.problem_mark or exc.context_mark
         line = mark.line + 1 if mark is not None else None

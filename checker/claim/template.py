@@ -22,6 +22,8 @@ FOR_METRICS = {
     "background": ("counts",),
     "background_error": ("counts",),
 }
+# Fields a metric cannot do without (build_claim refuses the claim otherwise), with a placeholder.
+REQUIRED_FOR = {"counts": {"observed": "0", "background": "1"}}
 # Words for the fields whose schema entry has no description.
 SECTION_WORDS = {
     "interval": "a printed confidence interval, instead of or beside stat_error",
@@ -76,15 +78,13 @@ def skeleton(metric: str) -> str:
             lines.append(_line(f'title: "{PLACEHOLDER_TITLE}"', f"{words} (required)"))
         elif name == "metric":
             lines.append(_line(f"metric: {metric}", f"{words} (required)"))
-        elif name == "estimate" and metric == "counts":
-            lines.append(_line("# estimate:", f"{words} (optional for counts)"))
         elif name == "estimate":
             lines.append(_line("estimate: 0", f"{words} (required): replace the 0"))
-        elif metric == "counts" and name in ("observed", "background"):
-            # a counting experiment needs both (claim.model); 1 loads, then is replaced
-            lines.append(_line(f"{name}: 1", f"{words} (required): replace the 1"))
         elif name in required:
             lines.append(_line(f"{name}:", f"{words} (required)"))
+        elif name in REQUIRED_FOR.get(metric, {}):
+            value = REQUIRED_FOR[metric][name]
+            lines.append(_line(f"{name}: {value}", f"{words} (required for {metric}): replace the {value}"))
         elif node.get("type") == "object":
             lines.append(_line(f"# {name}:", words))
             for sub, sub_node in node.get("properties", {}).items():

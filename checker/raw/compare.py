@@ -236,8 +236,11 @@ def claim_with_raw_numbers(claim: Claim, result: RawResult) -> Claim | None:
         return None
     changes = {"estimate": _like(head.estimate, claim.estimate, "estimate"),
                "samples": _reported(result.rows, "samples")}
-    if head.stat_error_data:
-        changes["stat_error"] = _like(head.stat_error_data, claim.stat_error, "stat_error")
+    # Over several circuits the data's own error is the between-circuit one: it holds the
+    # circuits' spread, which the per-sample error leaves out.
+    data_error = head.extra.get("stat_error_circuits") or head.stat_error_data
+    if data_error:
+        changes["stat_error"] = _like(data_error, claim.stat_error, "stat_error")
     if result.extra.get("has_circuit", True):
         changes["circuits"] = _reported(result.circuit_count, "circuits")
     return replace(claim, interval=None, **changes)

@@ -195,3 +195,42 @@ def test_a_published_style_heavy_output_claim_is_not_below_a_floor(check_claim):
     (f,) = floor_findings(check_claim, "heavy-output", "0.757", "stat_error: 0.0055\ncircuits: 100\n")
     assert f.status != "fail"
     assert f.recomputed == pytest.approx(math.sqrt(0.757 * 0.243 / 100), rel=2e-3)
+
+
+# --- the circuit-to-circuit term -------------------------------------------------------------
+
+def test_the_issues_honest_claim_with_circuits_passes_and_the_samples_only_one_fails(check_claim):
+    # Issue "Right at the edges", item 2: 10 qubits, F = 0.5, 10 circuits, 1e6 samples: the
+    # honest error is about 0.010 (4F^2/D per circuit, over 10 circuits); 0.0014 counts the
+    # samples and not the circuits.
+    extra = "qubits: 10\nstat_error: {}\nsamples: 1000000\ncircuits: 10\n"
+    (honest,) = floor_findings(check_claim, "linear-xeb", "0.50", extra.format("0.010"))
+    assert honest.status == "pass"
+    assert honest.details["floor_low"] < 0.0100 < honest.details["floor_high"] * 1.01
+    (slip,) = floor_findings(check_claim, "linear-xeb", "0.50", extra.format("0.0014"))
+    assert slip.status == "fail"
+    assert "no number of samples from 10 suffices" in slip.message
+    assert slip.reproduced_by == {"circuits": pytest.approx(4.6e3, rel=0.05)}
+    # Without circuits the floor stays sqrt(v/N), the smallest any number of circuits allows.
+    (no_k,) = floor_findings(check_claim, "linear-xeb", "0.50",
+                             "qubits: 10\nstat_error: 0.0014\nsamples: 1000000\n")
+    assert no_k.status == "pass" and no_k.details["floor_high"] < 0.00135
+
+
+def test_log_xeb_floor_counts_circuits_even_at_zero_fidelity(check_claim):
+    # The log-XEB circuit term (pi^2/6 - 1)/D does not vanish at F = 0: 12 qubits, 4 circuits,
+    # 4e6 samples: sqrt(pi^2/6 / 4e6 + 0.645 / 4096 / 4) = 0.0069 against 0.00064 without circuits.
+    (f,) = floor_findings(check_claim, "log-xeb", "0.000",
+                          "qubits: 12\nstat_error: 0.0007\nsamples: 4000000\ncircuits: 4\n")
+    assert f.status == "fail"
+    assert f.recomputed == pytest.approx(math.sqrt(math.pi ** 2 / 6 / 4e6 + (math.pi ** 2 / 6 - 1) / 4096 / 4),
+                                         rel=0.02)
+
+
+def test_a_small_shortfall_within_what_few_circuits_can_estimate_passes(check_claim):
+    # 8 circuits estimate their own spread with chi^2 on 7 degrees of freedom: a print 7% under
+    # the expected floor is within that (about one honest analysis in a thousand lands below
+    # the flagged level).
+    (f,) = floor_findings(check_claim, "linear-xeb", "0.606",
+                          "qubits: 12\nstat_error: 0.021\nsamples: 4000\ncircuits: 8\n")
+    assert f.status == "pass" and f.details["floor_plausible_low"] < 0.0215 * 1.02 and 0.021 < f.details["floor_low"]

@@ -318,7 +318,8 @@ def test_the_c_loader_reads_every_example_like_the_pure_python_one(monkeypatch):
     texts = [p.read_text(encoding="utf-8") for p in sorted((root / "claims_examples").glob("*.yaml"))]
     texts += ["title: t\nmetric: mean\nestimate: 0.30e-3\nx: &a [1, 2]\ny: *a\n",
               "title: 'quoted: # not a comment'\nmetric: mean\nestimate: \"017\"\n",
-              "- - - [1]\n", "a: {b: {c: [1, {d: 2}]}}\n"]
+              "- - - [1]\n", "a: {b: {c: [1, {d: 2}]}}\n", 'title: "\\ud800 lone surrogate"\n',
+              "a: [1, 2\n", "a: 'unterminated\n"]
     for text in texts:
         outcomes = []
         for loader in (yaml.SafeLoader, getattr(yaml, "CSafeLoader", yaml.SafeLoader)):

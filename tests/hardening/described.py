@@ -21,6 +21,8 @@ def resolve(claim, path: str):
             if not isinstance(node, tuple) or index >= len(node):
                 return _MISSING
             node = node[index]
+        elif isinstance(node, tuple):  # entries keyed by name in the file (rates.sensitivity)
+            node = next((x for x in node if getattr(x, "name", None) == key), _MISSING)
         else:
             node = getattr(node, key, _MISSING)
         if node is _MISSING or node is None:
@@ -47,7 +49,10 @@ def problems(finding, claim) -> list[str]:
         value = resolve(claim, finding.field)
         if value is _MISSING:
             out.append(f"{where}: field {finding.field} does not exist in the claim")
-        elif isinstance(value, Reported):
+        else:
+            if not isinstance(value, Reported) and isinstance(getattr(value, "value", None), Reported):
+                value = value.value  # a named entry printed as one number (rates.accuracy: 82.8%)
+        if value is not _MISSING and isinstance(value, Reported):
             if finding.printed is None or finding.printed.text != value.text:
                 out.append(f"{where}: printed {finding.printed!r} is not the claim's {value.text!r}")
             if finding.reported is not None and finding.reported != value.value:
