@@ -21,10 +21,11 @@ from __future__ import annotations
 from typing import Iterator
 
 from ..claim.model import Claim, Reported
-from ..report import Finding
+from ..report import Finding, Shown, Span
 from ..stats.precision import agrees
 from .parts_summary import (METHOD_WORDS, VARIANT_WORDS, PartsSummary, methods_details, parts_summary,
                             printed_combination, value_text)
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 ORDER = ("equal", "samples", "inverse-variance", "random-effects", "paule-mandel")
 LEGITIMATE = (None, "spread", "scaled")
@@ -124,7 +125,9 @@ def _headline_against_block(claim: Claim) -> Iterator[Finding]:
         words = "; ".join(f"headline {name} {head.text} against {block.text}" for name, head, block in off)
         yield Finding("fail", f"The headline differs from the printed combination ({words}), and no "
                       "extrapolation factor stands between them.", reported=off[0][1].value,
-                      recomputed=off[0][2].value, details={"quantity": "headline", "fields": [o[0] for o in off]})
+                      recomputed=off[0][2].value, details={"quantity": "headline", "fields": [o[0] for o in off]},
+                      field=off[0][1].path, statement="headline_vs_block", printed=Shown.of(off[0][1]),
+                      recomputed_range=Span(*off[0][2].bounds), tolerance=claim.tolerance)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
@@ -132,7 +135,7 @@ def check(claim: Claim) -> Iterator[Finding]:
     if len(claim.parts) < 2:
         have = "No parts are given" if not claim.parts else "Only one part is given"
         yield Finding("skip", f"{have}, so there is no combination to recompute.",
-                      details={"missing": ["parts"]})
+                      details={"missing": ["parts"]}, statement="needs_parts")
         return
     summary = parts_summary(claim)
     tol = claim.tolerance
@@ -149,18 +152,18 @@ def check(claim: Claim) -> Iterator[Finding]:
     if stated is not None and stated not in summary.methods:
         need = "each part's samples" if stated == "samples" else "each part's stat_error, more than zero (or its samples)"
         yield Finding("skip", f"The stated method, {METHOD_WORDS[stated]}, needs {need}, which the "
-                      "claim does not give.", details={**details, "missing": [need]})
+                      "claim does not give.", details={**details, "missing": [need]},
+                      statement="needs_inputs")
         return
     primary = stated or ("inverse-variance" if "inverse-variance" in summary.methods else "equal")
     mine = summary.methods[primary]
     if est is None and err is None:
         yield Finding("skip", f"No combined value is printed to compare; {METHOD_WORDS[primary]} of the "
                       f"{k} parts is {value_text(mine.estimate, None)}.", recomputed=mine.estimate,
-                      details=details)
+                      details=details, statement="not_printed", recomputed_range=_span(mine.estimate_range))
         return
     printed = _printed_text(est, err)
-    reported = est.value if est is not None else err.value
-    recomputed = mine.estimate if est is not None else mine.stat_error
+    about, reported, recomputed = _about(summary, primary, est, err, tol)
 
     if stated is None:
         # No method stated: any legitimate method that reproduces the print passes.
@@ -169,16 +172,17 @@ def check(claim: Claim) -> Iterator[Finding]:
             if hit:
                 _, variant, error = hit
                 reproduce = {"method": method, **({"error": variant} if variant else {})}
+                mine_about, reported, _ = _about(summary, method, est, err, tol)
                 yield Finding("pass", f"Printed combination {printed} agrees with "
                               f"{_result_text(summary, method, est, err, variant, error)} "
                               "(the claim does not state its method).", reported=reported,
                               recomputed=summary.methods[method].estimate if est else error,
-                              reproduced_by=reproduce, details=details)
+                              reproduced_by=reproduce, details=details, **mine_about)
                 return
         base = (f"Printed combination {printed}, but {_result_text(summary, primary, est, err)}, and the "
                 "claim does not state its method")
         yield _failure(base, _reproduce(summary, None, est, err, tol), summary, est, err, reported,
-                       recomputed, details)
+                       recomputed, details, about)
         return
 
     hit = _match(summary, stated, est, err, tol)
@@ -186,7 +190,7 @@ def check(claim: Claim) -> Iterator[Finding]:
         _, variant, error = hit
         yield Finding("pass", f"Printed combination {printed} agrees with "
                       f"{_result_text(summary, stated, est, err, variant, error)}.",
-                      reported=reported, recomputed=recomputed, details=details)
+                      reported=reported, recomputed=recomputed, details=details, **about)
         return
     found = _reproduce(summary, stated, est, err, tol)
     if stated == "random-effects" and found is not None and found[0] == "paule-mandel" and found[3] == "both":
@@ -194,18 +198,38 @@ def check(claim: Claim) -> Iterator[Finding]:
                       f"{_result_text(summary, 'paule-mandel', est, err)}, rather than "
                       f"{_result_text(summary, stated, est, err)}; worth saying which "
                       "between-part variance was used.", reported=reported, recomputed=recomputed,
-                      reproduced_by={"method": "paule-mandel"}, details=details)
+                      reproduced_by={"method": "paule-mandel"}, details=details,
+                      **{**about, "statement": "between_part_variance"})
         return
     numbers = _result_text(summary, stated, est, err).split(", ", 1)[1]
     base = (f"Printed combination {printed}, but {METHOD_WORDS[stated]} of the {k} parts, the stated "
             f"method, is {numbers}")
-    yield _failure(base, found, summary, est, err, reported, recomputed, details)
+    yield _failure(base, found, summary, est, err, reported, recomputed, details, about)
 
 
-def _failure(base, found, summary, est, err, reported, recomputed, details) -> Finding:
+def _span(bounds) -> Span | None:
+    return Span(*bounds) if bounds is not None else None
+
+
+def _about(summary: PartsSummary, method: str, est: Reported | None, err: Reported | None, tol: float):
+    """(finding fields, reported, recomputed) for the printed number a
+    combination finding is about: the estimate, unless it agrees with
+    ``method`` and the printed error is what does not (or only the error is
+    printed)."""
+    r = summary.methods[method]
+    on_error = err is not None and (est is None or (agrees(est.bounds, r.estimate_range, tol)
+                                                    and r.stat_error_range is not None
+                                                    and not agrees(err.bounds, r.stat_error_range, tol)))
+    rep, value, rng = (err, r.stat_error, r.stat_error_range) if on_error else (est, r.estimate, r.estimate_range)
+    about = {"field": rep.path, "statement": "combined", "printed": Shown.of(rep),
+             "recomputed_range": _span(rng), "tolerance": tol}
+    return about, rep.value, value
+
+
+def _failure(base, found, summary, est, err, reported, recomputed, details, about) -> Finding:
     if found is None:
         return Finding("fail", f"{base}; no method reproduces the print.", reported=reported,
-                       recomputed=recomputed, details=details)
+                       recomputed=recomputed, details=details, **about)
     method, variant, error, kind = found
     reproduce = {"method": method, **({"error": variant} if variant else {})}
     if kind == "value":
@@ -215,4 +239,29 @@ def _failure(base, found, summary, est, err, reported, recomputed, details) -> F
     else:
         tail = f"; the print is {_result_text(summary, method, est, err, variant, error, count=False)}"
     return Finding("fail", f"{base}{tail}.", reported=reported, recomputed=recomputed,
-                   reproduced_by=reproduce, details=details)
+                   reproduced_by=reproduce, details=details, **about)
+
+
+SPEC = CheckSpec(
+    id="combination",
+    title="Combination of the parts",
+    run=check,
+    quotes="value",
+    statements={
+        "combined": Statement(
+            question="How were the parts combined into the printed value? No method we tried reproduces it.",
+            if_reproduced=("The printed combination would follow {reproduced}, not with the method stated. "
+                           "Which weights were used to combine the parts?"),
+            reproducible=True),
+        "between_part_variance": Statement(
+            question=("Which estimate of the between-part variance does the random-effects combination use "
+                      "(DerSimonian-Laird, Paule-Mandel, another)? The printed value follows {reproduced}."),
+            reproducible=True),
+        "headline_vs_block": Statement(
+            question=("The headline and the printed combination differ, with no extrapolation between "
+                      "them. Which of the two is the result, and how was the other obtained?")),
+        "not_printed": ABOUT_THE_CLAIM,
+        "needs_parts": ABOUT_THE_CLAIM,
+        "needs_inputs": ABOUT_THE_CLAIM,
+    },
+)

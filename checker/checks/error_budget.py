@@ -16,12 +16,13 @@ import math
 from typing import Iterator
 
 from ..claim.model import Claim
-from ..report import Finding
+from ..report import Finding, Shown, Span
+from .no_estimate import no_estimate
 from ..stats.budget import predict
 from ..stats.precision import gap
-from .common import num
-from .printed_like import like
+from ..wording import like, num
 from .significance import statistical_error
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 FACTOR = 2.0
 
@@ -29,11 +30,15 @@ FACTOR = 2.0
 def check(claim: Claim) -> Iterator[Finding]:
     items = claim.error_budget
     if not items:
-        yield Finding("skip", "No error budget is given.", details={"missing": ["error_budget"]})
+        yield Finding("skip", "No error budget is given.", details={"missing": ["error_budget"]},
+                      statement="needs_inputs")
+        return
+    if claim.estimate is None:
+        yield no_estimate(claim, "the measured value against the budget")
         return
     if any(not 0.0 <= it.error.value <= 1.0 for it in items):
         yield Finding("skip", "An error rate lies outside [0, 1] (see bounds), so the budget predicts "
-                      "nothing.", details={"missing": []})
+                      "nothing.", details={"missing": []}, statement="needs_inputs")
         return
     tol = claim.tolerance
     errors = [it.error.value for it in items]
@@ -64,6 +69,8 @@ def check(claim: Claim) -> Iterator[Finding]:
         "measured": measured.value, "measured_sd": measured_sd or None, "ratio": ratio,
         "combined_sd": combined_sd or None, "tolerance": tol,
     }
+    about = {"field": measured.path, "statement": "budget", "printed": Shown.of(measured),
+             "recomputed_range": Span(low, high), "tolerance": tol}
     pred_text = like(at.predicted, measured)
     sd_text = f" ± {like(at.predicted_sd, measured)}" if at.predicted_sd else ""
     head = (f"The error budget of {len(items)} component{'s' if len(items) != 1 else ''} predicts "
@@ -74,14 +81,47 @@ def check(claim: Claim) -> Iterator[Finding]:
         side = "above" if ratio_low > 1 else "below"
         yield Finding("warn", f"{head}; the measured {measured.text} is {times} that, more than a factor of "
                       f"{FACTOR:g} {side} it: the listed errors do not account for the result.",
-                      reported=measured.value, recomputed=at.predicted, details=details)
+                      reported=measured.value, recomputed=at.predicted, details=details, **about)
     elif combined_sd > 0 and distance > combined_sd * (1 + tol):
         yield Finding("warn", f"{head}; the measured {measured.text} is {times} that, and the two differ by "
                       f"{like(distance, measured)}, more than their combined uncertainty "
                       f"{like(combined_sd, measured)}.", reported=measured.value, recomputed=at.predicted,
-                      details=details)
+                      details=details, **about)
     else:
         within = (f", within their combined uncertainty {like(combined_sd, measured)}" if combined_sd > 0
                   else ", within a factor of 2")
         yield Finding("pass", f"{head}; the measured {measured.text} is {times} that{within}.",
-                      reported=measured.value, recomputed=at.predicted, details=details)
+                      reported=measured.value, recomputed=at.predicted, details=details, **about)
+
+
+def implied(finding: Finding) -> str | None:
+    """The predicted value with its uncertainty, and the ratio measured / predicted."""
+    d = finding.details
+    if not _is_number(d.get("predicted")):
+        return None
+    printed = finding.printed.text if finding.printed is not None else None
+    text = f"predicted {like(d['predicted'], printed)}"
+    if _is_number(d.get("predicted_sd")):
+        text += f" ± {like(d['predicted_sd'], printed)}"
+    if _is_number(d.get("ratio")):
+        text += f" (measured / predicted = {num(d['ratio'], 2)})"
+    return text
+
+
+def _is_number(x) -> bool:
+    return isinstance(x, (int, float)) and not isinstance(x, bool) and math.isfinite(x)
+
+
+SPEC = CheckSpec(
+    id="error-budget",
+    title="Error budget against the measured value",
+    run=check,
+    statements={
+        "budget": Statement(
+            question=("The component error model and the measured value differ by more than a factor of 2, "
+                      "or by more than their combined uncertainty. What accounts for the difference: missing "
+                      "error sources, correlated errors, or a different model?")),
+        "needs_inputs": ABOUT_THE_CLAIM,
+    },
+    implied=implied,
+)

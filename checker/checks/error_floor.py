@@ -12,9 +12,11 @@ import math
 from typing import Iterator
 
 from ..claim.model import Claim, Reported
-from ..report import Finding
+from ..report import Finding, Shown, Span
 from ..stats.ranges import sampling_error_range
-from .common import above, below, count_for_error, metric_of, model_inputs, num, num_range
+from ..wording import num, span_text
+from .common import above, below, count_for_error, metric_of, model_inputs
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 WARN_RATIO = 3.0
 
@@ -57,17 +59,18 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
     if error is None or n is None:
         missing = (["stat_error"] if error is None else []) + ([model.count_field] if n is None else [])
         yield Finding("skip", f"{what}: no floor to compare with; needs {' and '.join(missing)}.",
-                      details={**details, "missing": missing})
+                      details={**details, "missing": missing}, statement="needs_inputs")
         return
     missing = [f for f in model.needs() if getattr(claim, f) is None]
     if missing:
         yield Finding("skip", f"{what}: the {model.name} model needs {', '.join(missing)}.",
-                      details={**details, "missing": missing})
+                      details={**details, "missing": missing}, statement="needs_inputs")
         return
     low, high = _floor(claim, estimate, n, factor)
     if not math.isfinite(low) or not high > 0:
         # e.g. a proportion printed as 1 (or beyond it, which bounds reports): no sampling error
-        yield Finding("skip", f"{what}: the model gives no positive error here.", details=details)
+        yield Finding("skip", f"{what}: the model gives no positive error here.", details=details,
+                      statement="no_model_error")
         return
     tol = claim.tolerance
     count_name = "circuits" if n.path.endswith("circuits") else "samples"
@@ -84,7 +87,9 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
     ratio = error.value / ((low + high) / 2)
     facts["ratio"] = ratio
     reproduce = {count_name: round(implied_n)} if implied_n is not None else None
-    base = (f"{what}: printed stat_error {error.text} against {num_range((low, high))} that "
+    about = {"field": error.path, "printed": Shown.of(error), "recomputed_range": Span(low, high),
+             "tolerance": tol}
+    base = (f"{what}: printed stat_error {error.text} against {span_text((low, high))} that "
             f"{n.text} {count_name} allow under the {model.name} model")
     if samples is not None:
         facts["sampling_floor_low"], facts["sampling_floor_high"] = hard
@@ -93,13 +98,13 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
             ratio = error.value / ((hard[0] + hard[1]) / 2)
             facts["ratio"] = ratio
             implied = _count_for(v_mid, factor[0], error.value)
-            yield Finding("fail", f"{what}: printed stat_error {error.text} against {num_range(hard)} that "
+            yield Finding("fail", f"{what}: printed stat_error {error.text} against {span_text(hard)} that "
                           f"{samples.text} samples allow under the {model.name} model, even before any "
                           f"circuit-to-circuit spread: smaller than sampling alone permits ({num(ratio, 2)}x); "
                           f"it would take about {num(implied, 2)} samples.",
                           reported=error.value, recomputed=(hard[0] + hard[1]) / 2,
                           reproduced_by={"samples": round(implied)} if implied is not None else None,
-                          details=facts)
+                          details=facts, statement="below_floor", **{**about, "recomputed_range": Span(*hard)})
             return
         if count_name == "circuits":
             # The per-circuit error sqrt(h (1 - h)/circuits) is the criterion's convention
@@ -109,26 +114,28 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
             yield Finding("skip", f"{base}: {num(ratio, 2)}x the per-circuit convention, which is the "
                           "heavy-output criterion's error, not a floor; the floor of sampling alone needs "
                           "samples (all shots).", reported=error.value, recomputed=(low + high) / 2,
-                          details={**facts, "missing": ["samples"]})
+                          details={**facts, "missing": ["samples"]}, statement="per_circuit_convention", **about)
             return
         yield Finding("fail", f"{base}: smaller than sampling alone permits "
                       f"({num(ratio, 2)}x); it would take about {num(implied_n, 2)} {count_name}.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
-                      details=facts)
+                      details=facts, statement="below_floor", **about)
     elif below(error, low, tol):
-        yield Finding("pass", f"{what}: printed stat_error {error.text} is below the {num_range((low, high))} "
+        yield Finding("pass", f"{what}: printed stat_error {error.text} is below the {span_text((low, high))} "
                       f"that the per-{count_name[:-1]} convention gives for {n.text} {count_name} "
-                      f"({num(ratio, 2)}x) but above the {num_range(hard)} floor of {samples.text} samples: "
+                      f"({num(ratio, 2)}x) but above the {span_text(hard)} floor of {samples.text} samples: "
                       f"consistent with many samples per {count_name[:-1]}.",
-                      reported=error.value, recomputed=(low + high) / 2, details=facts)
+                      reported=error.value, recomputed=(low + high) / 2, details=facts,
+                      statement="per_circuit_convention", **about)
     elif above(error, WARN_RATIO * high, tol):
         yield Finding("warn", f"{base}: {num(ratio, 2)}x the sampling floor, which suggests extra "
                       "spread (drift, circuit-to-circuit variation) the claim does not describe.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
-                      details=facts)
+                      details=facts, statement="above_floor", **about)
     else:
         yield Finding("pass", f"{base}: consistent ({num(ratio, 2)}x the floor).",
-                      reported=error.value, recomputed=(low + high) / 2, details=facts)
+                      reported=error.value, recomputed=(low + high) / 2, details=facts,
+                      statement="within_floor", **about)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
@@ -138,7 +145,8 @@ def check(claim: Claim) -> Iterator[Finding]:
         factor = claim.extrapolation.factor.bounds
     n = count_for_error(claim)
     samples = claim.samples if (n is not None and n is not claim.samples) else None
-    yield from _one(claim, claim.estimate, claim.stat_error, n, factor, "Headline", {}, samples)
+    if claim.estimate is not None:
+        yield from _one(claim, claim.estimate, claim.stat_error, n, factor, "Headline", {}, samples)
     for part in claim.parts:
         if part.stat_error is None:
             continue
@@ -148,3 +156,25 @@ def check(claim: Claim) -> Iterator[Finding]:
         samples = part.samples if n is not part.samples else None
         yield from _one(claim, part.estimate, part.stat_error, n, (1.0, 1.0),
                         f"Part {part.label}", {"part": part.label}, samples)
+
+
+SPEC = CheckSpec(
+    id="error-floor",
+    title="Statistical error against the sampling floor",
+    run=check,
+    statements={
+        "below_floor": Statement(
+            question=("How was the statistical error estimated, and how many samples stand behind it? "
+                      "As printed it is smaller than sampling alone allows."),
+            if_reproduced=("How was the statistical error estimated, and how many samples stand behind it? "
+                           "As printed it is smaller than sampling alone allows; it would follow {reproduced}."),
+            reproducible=True),
+        "above_floor": Statement(
+            question=("What besides sampling noise does the statistical error include (drift, "
+                      "circuit-to-circuit spread)? A sentence on it would help readers.")),
+        "within_floor": Statement(),
+        "per_circuit_convention": Statement(),
+        "needs_inputs": ABOUT_THE_CLAIM,
+        "no_model_error": ABOUT_THE_CLAIM,
+    },
+)

@@ -20,9 +20,11 @@ from __future__ import annotations
 from typing import Iterator
 
 from ..claim.model import Claim, Reported
-from ..report import Finding
+from ..report import Finding, Shown
+from .no_estimate import no_estimate
 from ..stats.granularity import granularity
-from .printed_like import like
+from ..wording import like
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 SEARCH = 0.1  # how far (as a share of N) to look for a count that would make the print possible
 MAX_STEPS = 10_000  # and at most this far: samples of 1e9 made a search of 1e8 counts (minutes)
@@ -49,10 +51,11 @@ def _one(claim: Claim, value: Reported, n: Reported | None, what: str, details: 
     noun = "items" if proportion else "whole-number responses"
     if n is None:
         return Finding("skip", f"{what}: the granularity test needs the number of {noun} (samples).",
-                       details={**details, "missing": ["samples"]})
+                       details={**details, "missing": ["samples"]}, statement="needs_inputs")
     if not n.exact:
         return Finding("skip", f"{what}: samples is printed as {n.text}, with limited precision; the "
-                       "granularity test needs the count written out in full.", details=details)
+                       "granularity test needs the count written out in full.", details=details,
+                       statement="needs_inputs")
     count = _whole(n)
     units = count * items
     per = f" of {items} items each" if items > 1 else ""
@@ -66,14 +69,15 @@ def _one(claim: Claim, value: Reported, n: Reported | None, what: str, details: 
                       f"{units} responses")
         return Finding("skip", f"{what}: with {what_units} every value printed to the precision of "
                        f"{value.text} is some whole count over {units}, so the granularity test cannot bite.",
-                       details=facts)
+                       details=facts, statement="cannot_bite")
+    about = {"field": value.path, "statement": "whole_count", "printed": Shown.of(value), "tolerance": 0.0}
     if g.possible:
         k = g.counts[0]
         several = f" (or {g.counts[-1]}/{units})" if len(g.counts) > 1 else ""
         whole = (f"a whole count of the {count} {noun}" if proportion
                  else f"a whole-number total over the {count} responses{per}")
         return Finding("pass", f"{what}: {value.text} is {k}/{units} = {like(k / units, value)}{several}, "
-                       f"{whole}.", reported=value.value, recomputed=k / units, details=facts)
+                       f"{whole}.", reported=value.value, recomputed=k / units, details=facts, **about)
     near = []
     if g.below is not None:
         near.append(f"{g.below}/{units} = {like(g.below / units, value)}")
@@ -86,7 +90,7 @@ def _one(claim: Claim, value: Reported, n: Reported | None, what: str, details: 
     return Finding("fail", f"{what}: {value.text} cannot come from {count} {noun}{per}: no whole count fits, "
                    f"the nearest are {' and '.join(near)}{tail}.", reported=value.value,
                    recomputed=nearest / units if nearest is not None else None,
-                   reproduced_by={"samples": other} if other is not None else None, details=facts)
+                   reproduced_by={"samples": other} if other is not None else None, details=facts, **about)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
@@ -96,16 +100,20 @@ def check(claim: Claim) -> Iterator[Finding]:
         why = ("set integer_data: true when the responses are whole numbers" if claim.metric == "mean"
                else f"a {claim.metric} estimate is not a count of whole items")
         yield Finding("skip", f"The granularity test applies to proportions and to means of whole-number "
-                      f"data; {why}.", details={"missing": ["integer_data"] if claim.metric == "mean" else []})
+                      f"data; {why}.", details={"missing": ["integer_data"] if claim.metric == "mean" else []},
+                      statement="not_counts")
         return
     items = _whole(claim.items) if claim.items is not None else 1
     method = claim.combination.method if claim.combination is not None else None
     if claim.extrapolation is not None:
         yield Finding("skip", "Headline: an extrapolated value is not a count over whole items, so only "
-                      "parts are tested.", details={})
+                      "parts are tested.", details={}, statement="headline_not_count")
     elif claim.parts and method != "samples":
         yield Finding("skip", "Headline: a weighted combination of parts is not itself a count over whole "
-                      "items (only pooling by samples is), so only parts are tested.", details={})
+                      "items (only pooling by samples is), so only parts are tested.", details={},
+                      statement="headline_not_count")
+    elif claim.estimate is None:
+        yield no_estimate(claim, "the headline's whole count")
     else:
         yield _one(claim, claim.estimate, claim.samples, "Headline", {}, proportion, items)
     for part in claim.parts:
@@ -124,3 +132,20 @@ def _whole(count: Reported) -> int:
 def _part_name(label: str) -> str:
     """'Part c1', and 'Part 2' rather than 'Part part 2' for an unlabelled part."""
     return label[:1].upper() + label[1:] if label.lower().startswith("part ") else f"Part {label}"
+
+
+SPEC = CheckSpec(
+    id="granularity",
+    title="Whole counts behind the printed value",
+    run=check,
+    quotes="value",
+    statements={
+        "whole_count": Statement(
+            question=("How many samples or responses stand behind {what}? No whole count gives it "
+                      "with the number printed.")),
+        "needs_inputs": ABOUT_THE_CLAIM,
+        "cannot_bite": ABOUT_THE_CLAIM,
+        "not_counts": ABOUT_THE_CLAIM,
+        "headline_not_count": ABOUT_THE_CLAIM,
+    },
+)

@@ -21,10 +21,11 @@ import math
 from typing import Iterator
 
 from ..claim.model import Claim
-from ..report import Finding
+from ..report import Finding, Shown, Span
 from ..stats.precision import agrees
-from .common import num, p_text
+from ..wording import num, p_text
 from .parts_summary import METHOD_WORDS, parts_summary, printed_combination, value_text
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 P_LIMIT = 0.01
 LOG_P_LIMIT = math.log(P_LIMIT)
@@ -33,17 +34,18 @@ LOG_P_LIMIT = math.log(P_LIMIT)
 def check(claim: Claim) -> Iterator[Finding]:
     if len(claim.parts) < 2:
         yield Finding("skip", "Fewer than two parts are given, so there is no scatter to measure.",
-                      details={"missing": ["parts"]})
+                      details={"missing": ["parts"]}, statement="needs_inputs")
         return
     summary = parts_summary(claim)
     het = summary.heterogeneity
     if het is None:
         yield Finding("skip", "Cochran's Q needs each part's stat_error (or its samples, for the "
-                      "metric model to give one).", details={"missing": ["parts.stat_error"]})
+                      "metric model to give one).", details={"missing": ["parts.stat_error"]},
+                      statement="needs_inputs")
         return
     if not math.isfinite(het.q):
         yield Finding("skip", "Cochran's Q overflows: some part's stat_error is too small to weigh "
-                      "against the others.", details={"missing": []})
+                      "against the others.", details={"missing": []}, statement="needs_inputs")
         return
     tol = claim.tolerance
     s = het.scale_factor
@@ -62,7 +64,8 @@ def check(claim: Claim) -> Iterator[Finding]:
     log_p_high = summary.log_p_q_high if summary.log_p_q_high is not None else het.log_p_q
     if log_p_high >= LOG_P_LIMIT:
         yield Finding("pass", f"The {summary.count} parts agree within their errors ({stats_text}).",
-                      reported=err.value if err else None, recomputed=scaled, details=details)
+                      reported=err.value if err else None, recomputed=scaled, details=details,
+                      statement="parts_agree", tolerance=tol)
         return
 
     # The parts disagree: which errors allow for the scatter?
@@ -84,17 +87,22 @@ def check(claim: Claim) -> Iterator[Finding]:
     if err is None:
         if stated in ("random-effects",):
             yield Finding("pass", f"The parts disagree ({stats_text}); the stated random-effects fit "
-                          "allows for it.", recomputed=scaled, details=details)
+                          "allows for it.", recomputed=scaled, details=details, statement="no_combined_error",
+                          tolerance=tol)
         else:
             yield Finding("warn", f"The parts disagree ({stats_text}) and no combined error is printed to "
                           f"judge; an error that allows for the scatter: {suggestion}.",
-                          recomputed=scaled, details=details)
+                          recomputed=scaled, details=details, statement="no_combined_error", tolerance=tol)
         return
+    about = {"field": err.path, "printed": Shown.of(err), "tolerance": tol,
+             "recomputed_range": Span(*base.scaled_error_range) if base is not None and base.scaled_error_range
+             else None}
     for words, value, rng in allowing:
         if agrees(err.bounds, rng, tol):
             yield Finding("pass", f"The parts disagree ({stats_text}), and the printed combined error "
                           f"{err.text} allows for it: it is {words} ({value_text(value, err)}).",
-                          reported=err.value, recomputed=value, details=details)
+                          reported=err.value, recomputed=value, details=details, statement="scatter_allowed",
+                          **{**about, "recomputed_range": Span(*rng)})
             return
     plain = next((m for m in ("inverse-variance", "samples", "equal")
                   if m in summary.methods and summary.methods[m].stat_error_range is not None
@@ -107,4 +115,45 @@ def check(claim: Claim) -> Iterator[Finding]:
         reproduce = None
     yield Finding("fail", f"The parts disagree ({stats_text}), yet the printed combined error {err.text} "
                   f"{what}; {suggestion}.", reported=err.value, recomputed=scaled,
-                  reproduced_by=reproduce, details=details)
+                  reproduced_by=reproduce, details=details, statement="scatter_not_allowed", **about)
+
+
+def implied(finding: Finding) -> str | None:
+    """Cochran's Q with its degrees of freedom, p, I^2 and the Birge ratio."""
+    d = finding.details
+    if not (_is_number(d.get("Q")) and _is_number(d.get("df"))):
+        return None
+    bits = [f"Cochran's Q = {num(d['Q'])} on {num(d['df'])} degrees of freedom"]
+    if _is_number(d.get("p_Q")):
+        bits.append(f"p = {num(d['p_Q'], 2)}")
+    if _is_number(d.get("I2")):
+        bits.append(f"I² = {num(100 * d['I2'], 2)}%")
+    if _is_number(d.get("H")):
+        bits.append(f"Birge ratio {num(d['H'])}")
+    return ", ".join(bits)
+
+
+def _is_number(x) -> bool:
+    return isinstance(x, (int, float)) and not isinstance(x, bool) and math.isfinite(x)
+
+
+SPEC = CheckSpec(
+    id="heterogeneity",
+    title="Agreement between the parts",
+    run=check,
+    statements={
+        "scatter_not_allowed": Statement(
+            question=("The parts disagree with each other more than their errors allow. Was the combined "
+                      "error scaled for that spread (for example by the Birge ratio, or a random-effects "
+                      "model), and what might make the parts differ?")),
+        "no_combined_error": Statement(
+            question=("The parts disagree with each other more than their errors allow, and no combined "
+                      "error is printed. What error do the authors give the combined value, and does it "
+                      "allow for that spread?"),
+            about="claim"),
+        "scatter_allowed": Statement(),
+        "parts_agree": ABOUT_THE_CLAIM,
+        "needs_inputs": ABOUT_THE_CLAIM,
+    },
+    implied=implied,
+)

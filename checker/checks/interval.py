@@ -27,13 +27,15 @@ import math
 from typing import Iterator
 
 from ..claim.model import Claim
-from ..report import Finding
+from ..report import Finding, Shown, Span
+from .no_estimate import no_estimate
 from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval, proportion_intervals
 from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.granularity import granularity
 from ..stats.interval import sigma_from_interval, z_for_level
 from ..stats.precision import agrees, gap, over_box
-from .printed_like import like
+from ..wording import like
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 # Levels a mislabelled interval is most often printed at, with their names.
 OTHER_LEVELS = ((math.erf(1 / math.sqrt(2)), "1 sigma (68.27%)"), (0.90, "90%"), (0.95, "95%"),
@@ -89,20 +91,23 @@ def _sigma_finding(claim: Claim, tol: float, asymmetric: bool, below, above) -> 
                  f"{like(mid, stat or iv.low)}")
     if stat is None:
         return Finding("skip", f"{shape}; no stat_error is printed to compare it with.",
-                       recomputed=mid, details=details)
+                       recomputed=mid, details=details, statement="no_stat_error",
+                       recomputed_range=Span(*sigma), tolerance=tol)
+    about = {"field": stat.path, "statement": "stat_error", "printed": Shown.of(stat),
+             "recomputed_range": Span(*sigma), "tolerance": tol}
     if agrees(stat.bounds, sigma, tol):
         where = "lies between them" if asymmetric else "agrees"
         return Finding("pass", f"{shape}; the printed stat_error {stat.text} {where}.",
-                       reported=stat.value, recomputed=mid, details=details)
+                       reported=stat.value, recomputed=mid, details=details, **about)
     for lev, words in OTHER_LEVELS:
         if abs(lev - level) < 1e-9:
             continue
         if agrees(stat.bounds, implied(lev)[0], tol):
             return Finding("fail", f"{shape}, but the printed stat_error is {stat.text}; the printed "
                            f"interval is the {words} one, not the {lt} one.", reported=stat.value, recomputed=mid,
-                           reproduced_by={"level": round(lev, 6)}, details=details)
+                           reproduced_by={"level": round(lev, 6)}, details=details, **about)
     return Finding("fail", f"{shape}, but the printed stat_error is {stat.text}; no usual confidence level "
-                   "reconciles them.", reported=stat.value, recomputed=mid, details=details)
+                   "reconciles them.", reported=stat.value, recomputed=mid, details=details, **about)
 
 
 def _counts(claim: Claim) -> list[int] | None:
@@ -177,6 +182,9 @@ def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
                "asymmetric": asymmetric, "tolerance": tol,
                "count": counts[0] if counts and len(counts) == 1 else None}
     printed = f"[{iv.low.text}, {iv.high.text}]"
+    # The statement is about the printed interval as a whole, quoted as printed.
+    about = {"field": "interval", "statement": "method", "tolerance": tol,
+             "printed": Shown(printed, iv.low.low, iv.high.high)}
     if agreeing:
         first = agreeing[0]
         also = (f" ({' and '.join(NAMES[m] for m in agreeing[1:])} agree{'s' if len(agreeing) == 2 else ''} too)"
@@ -184,7 +192,7 @@ def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
         lo, hi = shown[first]["low"], shown[first]["high"]
         return Finding("pass", f"The printed {lt} interval {printed} for {what} is what the {NAMES[first]} "
                        f"method gives, [{like(lo, iv.low)}, {like(hi, iv.high)}]{also}.",
-                       reported=iv.low.value, recomputed=lo, details=details)
+                       reported=iv.low.value, recomputed=lo, details=details, **about)
     listing = "; ".join(f"{NAMES[m]} [{like(v['low'], iv.low)}, {like(v['high'], iv.high)}]"
                         for m, v in shown.items())
     for lev, words in OTHER_LEVELS:
@@ -195,16 +203,17 @@ def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
             return Finding("fail", f"The printed {lt} interval {printed} for {what} matches no method at {lt} "
                            f"({listing}); it is the {NAMES[other[0]]} interval at {words}.",
                            reported=iv.low.value, recomputed=shown[other[0]]["low"],
-                           reproduced_by={"method": other[0], "level": round(lev, 6)}, details=details)
-    return _other_denominator(claim, level, lt, printed, what, listing, slack, shown, details)
+                           reproduced_by={"method": other[0], "level": round(lev, 6)}, details=details,
+                           **about)
+    return _other_denominator(claim, level, lt, printed, what, listing, slack, shown, details, about)
 
 
-def _other_denominator(claim, level, lt, printed, what, listing, slack, shown, details) -> Finding:
+def _other_denominator(claim, level, lt, printed, what, listing, slack, shown, details, about) -> Finding:
     """No method gives the print with the stated samples: an interval wider than
     every method is a design effect (a note); otherwise name the whole N with
     which a method gives it (stats/denominator_search.py)."""
     iv = claim.interval
-    kept = dict(reported=iv.low.value, recomputed=shown["wilson"]["low"])
+    kept = dict(reported=iv.low.value, recomputed=shown["wilson"]["low"], **about)
     half = (iv.high.value - iv.low.value) / 2
     widest = max(v["high"] - v["low"] for v in shown.values())
     n = claim.samples.value
@@ -215,7 +224,8 @@ def _other_denominator(claim, level, lt, printed, what, listing, slack, shown, d
                        f"as wide as the widest binomial interval ({listing}); it implies about {n_eff:.3g} "
                        f"effective items, a design effect of {deff:.3g}. A clustered analysis is a legitimate "
                        "reason; the paper should say so.",
-                       details={**details, "effective_samples": n_eff, "design_effect": deff}, **kept)
+                       details={**details, "effective_samples": n_eff, "design_effect": deff},
+                       **{**kept, "statement": "design_effect"})
     search = search_denominator(claim.estimate.bounds, iv.low.bounds, iv.high.bounds, level, slack)
     if search.fits:
         fit = search.fits[0]
@@ -233,10 +243,15 @@ def _other_denominator(claim, level, lt, printed, what, listing, slack, shown, d
 def check(claim: Claim) -> Iterator[Finding]:
     iv = claim.interval
     if iv is None:
-        yield Finding("skip", "No interval is printed.", details={"missing": ["interval"]})
+        yield Finding("skip", "No interval is printed.", details={"missing": ["interval"]},
+                      statement="needs_inputs")
+        return
+    if claim.estimate is None:
+        yield no_estimate(claim, "the interval's sides")
         return
     if iv.low.value > iv.high.value:
-        yield Finding("skip", "The interval's ends are reversed (bounds reports it).", details={})
+        yield Finding("skip", "The interval's ends are reversed (bounds reports it).", details={},
+                      statement="reversed")
         return
     tol = claim.tolerance
     below, above = _sides(claim)
@@ -249,3 +264,28 @@ def check(claim: Claim) -> Iterator[Finding]:
         yield sigma
     if proportion:
         yield _method_finding(claim, tol, asymmetric)
+
+
+SPEC = CheckSpec(
+    id="interval",
+    title="Confidence interval",
+    run=check,
+    quotes="value",
+    statements={
+        "stat_error": Statement(
+            question="Which confidence level does the printed interval have? None of the usual levels "
+                     "reconciles it with the printed statistical error.",
+            if_reproduced="Was the interval made {reproduced}? Please name the level beside it.",
+            reproducible=True),
+        "method": Statement(
+            question="Which method produced the printed interval? None of the usual methods reproduces it.",
+            if_reproduced="Was the interval made {reproduced}? Please name the method beside it.",
+            reproducible=True),
+        "design_effect": Statement(
+            question="Is the printed interval from a clustered analysis? It is wider than any binomial "
+                     "interval for the printed samples; please say how it was made."),
+        "no_stat_error": ABOUT_THE_CLAIM,
+        "needs_inputs": ABOUT_THE_CLAIM,
+        "reversed": ABOUT_THE_CLAIM,
+    },
+)

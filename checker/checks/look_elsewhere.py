@@ -18,12 +18,15 @@ import math
 from typing import Iterator
 
 from ..claim.model import Claim
-from ..report import Finding
+from ..report import Finding, Shown, Span
 from ..stats.multiplicity import log_bonferroni, log_gross_vitells, log_sidak
 from ..stats.precision import agrees, over_box
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
-from .common import above, is_probability, log_bounds, num, num_range, p_range_text, p_text
+from ..vocabulary import CORRECTION_NAMES
+from ..wording import num, p_range_text, p_text, span_text
+from .common import above, is_probability, log_bounds
 from .significance import recompute, stated_convention
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 
 def _local(claim: Claim):
@@ -71,8 +74,6 @@ def _methods(claim: Claim, lp, sigma, sided):
     return out
 
 
-LABELS = {"gross-vitells": "Gross-Vitells", "sidak": "Sidak", "bonferroni": "Bonferroni",
-          "none": "no correction"}
 
 
 def _printed_global(printed, methods, primary, summary, details, tol) -> Finding:
@@ -80,7 +81,9 @@ def _printed_global(printed, methods, primary, summary, details, tol) -> Finding
     the method (or sidedness) that reproduces it."""
     gsigma = methods[primary][1]
     mid = gsigma[0] if math.isinf(gsigma[1]) else (gsigma[0] + gsigma[1]) / 2
-    common = {"reported": printed.value, "recomputed": mid, "details": details}
+    common = {"reported": printed.value, "recomputed": mid, "details": details, "field": printed.path,
+              "statement": "global_sigma", "printed": Shown.of(printed), "recomputed_range": Span(*gsigma),
+              "tolerance": tol}
     if agrees(printed.bounds, gsigma, tol):
         return Finding("pass", f"Printed global {printed.text} sigma agrees: {summary}.", **common)
     sided = primary[1]
@@ -97,31 +100,33 @@ def _printed_global(printed, methods, primary, summary, details, tol) -> Finding
     if other[0] == "none":
         tail = "the printed value is the local one, uncorrected"
     else:
-        tail = (f"the printed value is what {LABELS[other[0]]}"
+        tail = (f"the printed value is what {CORRECTION_NAMES[other[0]]}"
                 f"{' (' + other[1] + '-sided)' if other[1] != sided else ''} gives")
     return Finding("fail", f"Printed global {printed.text} sigma, but {summary}; {tail}.",
                    reproduced_by=reproduce, **common)
 
 
 def _span(bounds: tuple[float, float]) -> str:
-    return f"at least {num(bounds[0])}" if math.isinf(bounds[1]) else num_range(bounds)
+    return f"at least {num(bounds[0])}" if math.isinf(bounds[1]) else span_text(bounds)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
     sig = claim.significance
     if claim.trials is None and sig.upcrossings is None:
         yield Finding("skip", "No look-elsewhere correction to check; needs trials or upcrossings.",
-                      details={"missing": ["trials", "upcrossings"]})
+                      details={"missing": ["trials", "upcrossings"]}, statement="needs_inputs")
         return
     if sig.upcrossings is not None and sig.upcrossing_sigma is None:
         yield Finding("skip", "Upcrossings are given without the reference level; needs "
-                      "significance.upcrossing_sigma.", details={"missing": ["significance.upcrossing_sigma"]})
+                      "significance.upcrossing_sigma.", details={"missing": ["significance.upcrossing_sigma"]},
+                      statement="needs_inputs")
         if claim.trials is None:
             return
     local = _local(claim)
     if local is None:
         yield Finding("skip", "No local significance to correct; needs significance.sigma or p_value "
-                      "(or threshold and errors).", details={"missing": ["significance.sigma"]})
+                      "(or threshold and errors).", details={"missing": ["significance.sigma"]},
+                      statement="needs_inputs")
         return
     lp, sigma, origin = local
     sided = sig.sided
@@ -149,25 +154,47 @@ def check(claim: Claim) -> Iterator[Finding]:
     mid = gsigma[0] if bounded else (gsigma[0] + gsigma[1]) / 2
     p_words = f"p below {p_text(glp[1])}" if bounded else f"p = {p_range_text(glp)}"
     summary = (f"local {_span(sigma)} sigma ({origin}) with {how} is global "
-               f"{_span(gsigma)} sigma ({p_words}, {LABELS[primary[0]]}, {sided}-sided)")
+               f"{_span(gsigma)} sigma ({p_words}, {CORRECTION_NAMES[primary[0]]}, {sided}-sided)")
     if sig.global_sigma is not None:
         yield _printed_global(sig.global_sigma, methods, primary, summary, details, tol)
     if sig.required_sigma is not None:
         need = sig.required_sigma.value
+        about = {"field": sig.required_sigma.path, "statement": "required_sigma",
+                 "printed": Shown.of(sig.required_sigma), "recomputed_range": Span(*gsigma), "tolerance": tol}
         if above(sig.required_sigma, gsigma[1], tol):
             yield Finding("fail", f"After the look-elsewhere correction the claim reaches "
-                          f"{num_range(gsigma)} sigma, below the required {sig.required_sigma.text}: {summary}.",
-                          reported=need, recomputed=mid, details={**details, "required": need})
+                          f"{span_text(gsigma)} sigma, below the required {sig.required_sigma.text}: {summary}.",
+                          reported=need, recomputed=mid, details={**details, "required": need}, **about)
         elif gsigma[0] < need:
             words = (f"the printed bound on p shows {_span(gsigma)} sigma, which does not settle the required "
                      f"{sig.required_sigma.text}" if bounded else
                      f"the claim reaches {_span(gsigma)} sigma, which clears the required "
                      f"{sig.required_sigma.text} only within printed precision")
             yield Finding("warn", f"After the look-elsewhere correction {words}: {summary}.",
-                          reported=need, recomputed=mid, details={**details, "required": need})
+                          reported=need, recomputed=mid, details={**details, "required": need}, **about)
         elif sig.global_sigma is None:
             yield Finding("pass", f"The global significance clears the required "
                           f"{sig.required_sigma.text} sigma: {summary}.", reported=need, recomputed=mid,
-                          details={**details, "required": need})
+                          details={**details, "required": need}, **about)
     elif sig.global_sigma is None:
-        yield Finding("pass", f"No global significance is printed; {summary}.", recomputed=mid, details=details)
+        yield Finding("pass", f"No global significance is printed; {summary}.", recomputed=mid, details=details,
+                      statement="global_only", recomputed_range=Span(*gsigma), tolerance=tol)
+
+
+SPEC = CheckSpec(
+    id="look-elsewhere",
+    title="Significance after looking at several configurations",
+    run=check,
+    statements={
+        "global_sigma": Statement(
+            question="How was the global significance obtained from the local one and the number of configurations?",
+            if_reproduced=("Was the global significance obtained {reproduced}? Please name the "
+                           "correction and the number of configurations it counts."),
+            reproducible=True),
+        "required_sigma": Statement(
+            question=("How many configurations were examined before this one was reported, and does the "
+                      "claim still pass once the significance is corrected for them?")),
+        "global_only": ABOUT_THE_CLAIM,
+        "needs_inputs": ABOUT_THE_CLAIM,
+    },
+)

@@ -24,18 +24,12 @@ from ..claim.model import Claim, Reported
 from ..stats.combination_ranges import CombinationRanges, PartsBox
 from ..stats.combine import METHODS, combine, spread_error
 from ..stats.heterogeneity import Heterogeneity, cochran_q, heterogeneity, log_p_chi2, scale_factor
+from ..vocabulary import COMBINATION_MEANS as METHOD_WORDS  # noqa: F401  (the checks read it here)
+from ..wording import like
 from .common import metric_of, model_inputs
-from .printed_like import like
 
 Range = tuple[float, float]
 
-METHOD_WORDS = {
-    "equal": "the equal-weight mean",
-    "samples": "the mean weighted by samples",
-    "inverse-variance": "the inverse-variance mean",
-    "random-effects": "the random-effects mean (DerSimonian-Laird)",
-    "paule-mandel": "the random-effects mean with the Paule-Mandel between-part variance",
-}
 # Ways of turning part errors into a combined error: the first two are
 # legitimate choices, the last two are slips.
 VARIANT_WORDS = {

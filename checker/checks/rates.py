@@ -38,7 +38,8 @@ from ..stats.confusion import CELLS, DEFINITIONS, MARGINS, NUMERATORS, margins, 
 from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.precision import agrees, gap
 from .interval import OTHER_LEVELS, _level_text
-from .printed_like import like
+from ..wording import like
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 
 def _words(name: str) -> str:
@@ -169,6 +170,7 @@ def _interval_finding(claim: Claim, rate: PrintedRate, table: dict[str, int]) ->
     if 2 * half > widest and 0.0 < n_eff < math.inf and math.isfinite(n / n_eff):
         deff = n / n_eff
         details.update(effective_samples=n_eff, design_effect=deff)
+        kept["statement"] = "design_effect"
         return Finding("warn", f"The printed {lt} interval {printed} of the {words} is {2 * half / widest:.2g} "
                        f"times as wide as the widest binomial interval for {what} ({listing}); it implies about "
                        f"{n_eff:.3g} effective cases, a design effect of {deff:.3g}. A clustered analysis "
@@ -190,14 +192,38 @@ def _interval_finding(claim: Claim, rate: PrintedRate, table: dict[str, int]) ->
 def check(claim: Claim) -> Iterator[Finding]:
     if claim.counts_table is None:
         yield Finding("skip", "No counts_table is given, so there are no rates to recompute.",
-                      details={"missing": ["counts_table"]})
+                      details={"missing": ["counts_table"]}, statement="needs_inputs")
         return
     table = _table(claim)
     if not claim.rates:
         yield Finding("skip", "A counts_table is given but no rates are printed from it.",
-                      field="counts_table", details={"missing": ["rates"]})
+                      details={"missing": ["rates"]}, statement="needs_inputs")
         return
     for rate in claim.rates:
         yield _value_finding(claim, rate, table)
         if rate.interval is not None:
             yield _interval_finding(claim, rate, table)
+
+
+SPEC = CheckSpec(
+    id="rates",
+    title="Rates from the table of counts",
+    run=check,
+    quotes="value",
+    statements={
+        "rate_value": Statement(
+            question="Which counts give {what}? The table of counts gives another value.",
+            if_reproduced="Is {what} computed {reproduced}? The table of counts gives another value.",
+            reproducible=True),
+        "rate_interval": Statement(
+            question="Which method and which number of cases produced {what}? None of the usual methods "
+                     "reproduces it with the rate's own denominator.",
+            if_reproduced="Was {what} computed {reproduced}? With the rate's own denominator no usual "
+                          "method gives it.",
+            reproducible=True),
+        "design_effect": Statement(
+            question="Is {what} from a clustered analysis (several cases from one person or site)? It is "
+                     "wider than any binomial interval for the table's counts; please say how it was made."),
+        "needs_inputs": ABOUT_THE_CLAIM,
+    },
+)

@@ -24,14 +24,22 @@ from dataclasses import dataclass
 from typing import Iterator
 
 from ..claim.model import Claim
-from ..report import Finding
+from ..report import Finding, Shown, Span
 from ..stats.binomial import binomial_variance, heavy_output_sigma
 from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
-from .common import (above, convention_text, is_probability, count_for_error, finite_or_none, log_bounds, metric_of,
-                     model_inputs, num, num_range, p_range_text)
+from ..vocabulary import convention_text
+from ..wording import num, p_range_text, span_text
+from .common import above, is_probability, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
+
+LN10 = math.log(10.0)
+
+
+def _log10_span(log_bounds_natural: tuple[float, float]) -> Span:
+    return Span(log_bounds_natural[0] / LN10, log_bounds_natural[1] / LN10, "log10")
 
 KEYS = ("sided", "systematics", "error_at")
 
@@ -80,7 +88,7 @@ def _conventions(claim: Claim) -> list[dict]:
 
 def recompute(claim: Claim, convention: dict) -> Recomputed | None:
     """z and log p over the box of the printed inputs, under one convention."""
-    if claim.threshold is None:
+    if claim.threshold is None or claim.estimate is None:
         return None
     t = claim.threshold.value
     sided, systematics, error_at = (convention[k] for k in KEYS)
@@ -169,27 +177,29 @@ def _criterion(claim: Claim, shown: Recomputed, tol: float) -> Iterator[Finding]
     facts = {"quantity": "criterion", "required": need.value, "sigma_printed_low": shown.sigma[0],
              "sigma_printed_high": shown.sigma[1], "sigma_circuits_low": crit.sigma[0],
              "sigma_circuits_high": crit.sigma[1], "per_circuit_error": per, "tolerance": tol}
+    about = {"field": need.path, "statement": "criterion", "printed": Shown.of(need),
+             "recomputed_range": Span(*crit.sigma), "tolerance": tol}
     words = (f"the criterion's error over circuits, sqrt(h(1 - h)/{claim.circuits.text}) = {num(per, 3)}, "
-             f"gives {num_range(crit.sigma)} sigma")
+             f"gives {span_text(crit.sigma)} sigma")
     printed = f"the printed stat_error {claim.stat_error.text}" if claim.stat_error else "the printed interval"
     if printed_ok and not crit_ok:
         yield Finding("fail", f"The required {need.text} sigma is reached only with {printed} "
-                      f"({num_range(shown.sigma)} sigma), an error below the criterion's (shot noise, say); {words}, "
+                      f"({span_text(shown.sigma)} sigma), an error below the criterion's (shot noise, say); {words}, "
                       "short of it.",
                       reported=need.value, recomputed=(crit.sigma[0] + crit.sigma[1]) / 2,
-                      reproduced_by={"error": "shot noise"}, details=facts)
+                      reproduced_by={"error": "shot noise"}, details=facts, **about)
     elif printed_ok:
         yield Finding("pass", f"The required {need.text} sigma is reached with {printed} and under the "
                       f"criterion's convention too: {words}.", reported=need.value,
-                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts)
+                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts, **about)
     elif crit_ok:
         yield Finding("pass", f"With {printed} the required {need.text} sigma is not reached, but {words}, "
                       "which reaches it.", reported=need.value, recomputed=(crit.sigma[0] + crit.sigma[1]) / 2,
-                      details=facts)
+                      details=facts, **about)
     else:
         yield Finding("fail", f"The required {need.text} sigma is reached under neither convention: "
-                      f"{printed} gives {num_range(shown.sigma)} sigma and {words}.", reported=need.value,
-                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts)
+                      f"{printed} gives {span_text(shown.sigma)} sigma and {words}.", reported=need.value,
+                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts, **about)
 
 
 class _Lazy:
@@ -234,38 +244,40 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
     details = {"sided": sig.sided, "p_from_sigma_low": math.exp(stated[0]) if stated[0] > -700 else 0.0,
                "log10_p_from_sigma": stated[1] / math.log(10), "tolerance": tol}
     base = f"Printed {sigma.text} sigma is p = {p_range_text(stated)} {sig.sided}-sided"
+    about = {"field": p.path, "statement": "sigma_vs_p", "printed": Shown.of(p),
+             "recomputed_range": _log10_span(stated), "tolerance": tol}
     if agrees_log(printed_log, stated, tol):
         yield Finding("pass", f"{base}, matching the printed p = {p.text}.",
-                      reported=p.value, recomputed=math.exp(stated[1]), details=details)
+                      reported=p.value, recomputed=math.exp(stated[1]), details=details, **about)
         return
     other = "two" if sig.sided == "one" else "one"
     if agrees_log(printed_log, implied(other), tol):
         yield Finding("fail", f"{base}, but the printed p = {p.text} is the {other}-sided value.",
                       reported=p.value, recomputed=finite_or_none(math.exp(stated[1])),
-                      reproduced_by={"sided": other}, details=details)
+                      reproduced_by={"sided": other}, details=details, **about)
         return
     inverse = over_box(lambda lp: sigma_from_log_p(lp, sig.sided), [printed_log]) if printed_log[0] > -math.inf \
         else (sigma_from_log_p(printed_log[1], sig.sided), math.inf)
     yield Finding("fail", f"{base}, but the printed p = {p.text}, which would be "
-                  f"{num_range(inverse, 3) if math.isfinite(inverse[1]) else 'at least ' + num(inverse[0])} sigma; "
+                  f"{span_text(inverse, 3) if math.isfinite(inverse[1]) else 'at least ' + num(inverse[0])} sigma; "
                   "no sidedness reconciles them.",
-                  reported=p.value, recomputed=finite_or_none(math.exp(stated[1])), details=details)
+                  reported=p.value, recomputed=finite_or_none(math.exp(stated[1])), details=details, **about)
 
 
 def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree, recomputed_words,
-             agree_words, recomputed, stated, conv_words, details) -> Finding:
+             agree_words, recomputed, stated, conv_words, details, about) -> Finding:
     """One printed quantity (sigma, or p in log space) against its recomputation
     under the stated convention; on a disagreement, the first other convention
     (fewest changes first) that reproduces the print."""
     if agree(printed_bounds, pick(mine)):
         return Finding("pass", f"{printed_words} agrees with {agree_words} ({conv_words}).",
-                       reported=printed.value, recomputed=recomputed, details=details)
+                       reported=printed.value, recomputed=recomputed, details=details, **about)
     other = next((r for r in results if r is not mine and agree(printed_bounds, pick(r))), None)
     reproduce = _differs(other.convention, stated) if other else None
     tail = f"; it would follow with {convention_text(reproduce)}" if other else "; no convention reproduces it"
     return Finding("fail", f"{printed_words}, but estimate, threshold and errors give {recomputed_words} "
                    f"({conv_words}){tail}.", reported=printed.value, recomputed=recomputed,
-                   reproduced_by=reproduce, details=details)
+                   reproduced_by=reproduce, details=details, **about)
 
 
 def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
@@ -276,6 +288,8 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     mine = next((r for r in results if r.convention == stated), None)
     if mine is None:
         missing = []
+        if claim.estimate is None:
+            missing.append("estimate")
         if claim.threshold is None:
             missing.append("threshold")
         if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and not per_circuit(claim):
@@ -283,46 +297,57 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         if stated["error_at"] == "threshold" and count_for_error(claim) is None:
             missing.append(metric_of(claim).count_field)
         yield Finding("skip", f"Cannot recompute the significance; needs {' and '.join(missing) or 'more inputs'}.",
-                      details={"missing": missing})
+                      details={"missing": missing}, statement="needs_inputs")
         return
     conv_words = convention_text(stated)
+    # Whether the systematic error widened the null (the HTML picture draws it so).
+    syst_in = stated["systematics"] != "none" and claim.syst_error is not None and claim.syst_error.value > 0
     if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and per_circuit(claim):
         conv_words += ", the criterion's error over circuits sqrt(h(1 - h)/circuits)"
-    details = {"convention": stated, "stated": sorted(sig.stated), "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
+    details = {"convention": stated, "stated": sorted(sig.stated), "syst_in_error": syst_in,
+               "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
                "log10_p_low": mine.log_p[0] / math.log(10), "log10_p_high": mine.log_p[1] / math.log(10),
                "tolerance": tol}
     sigma_mid = (mine.sigma[0] + mine.sigma[1]) / 2
     if sig.sigma is not None:
         yield _compare(f"Printed {sig.sigma.text} sigma", sig.sigma, sig.sigma.bounds, results, mine,
                        lambda r: r.sigma, lambda a, b: agrees(a, b, tol),
-                       f"{num_range(mine.sigma)} sigma",
-                       f"the {num_range(mine.sigma)} recomputed from estimate, threshold and errors",
+                       f"{span_text(mine.sigma)} sigma",
+                       f"the {span_text(mine.sigma)} recomputed from estimate, threshold and errors",
                        sigma_mid, stated, conv_words,
-                       {**details, "quantity": "sigma"})
+                       {**details, "quantity": "sigma"},
+                       {"field": sig.sigma.path, "statement": "sigma_vs_inputs", "printed": Shown.of(sig.sigma),
+                        "recomputed_range": Span(*mine.sigma), "tolerance": tol})
     if sig.p_value is not None and is_probability(sig.p_value):
         p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
         yield _compare(f"Printed p = {sig.p_value.text}", sig.p_value, log_bounds(sig.p_value), results, mine,
                        lambda r: r.log_p, lambda a, b: agrees_log(a, b, tol),
                        f"p = {p_range_text(mine.log_p)}", f"the recomputed p = {p_range_text(mine.log_p)}",
                        p_mid, stated, conv_words,
-                       {**details, "quantity": "p_value"})
+                       {**details, "quantity": "p_value"},
+                       {"field": sig.p_value.path, "statement": "p_vs_inputs", "printed": Shown.of(sig.p_value),
+                        "recomputed_range": _log10_span(mine.log_p), "tolerance": tol})
     if sig.sigma is None and sig.p_value is None:
         yield Finding("pass", f"No significance is printed; estimate, threshold and errors give "
-                      f"{num_range(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
-                      recomputed=sigma_mid, details={**details, "quantity": "sigma"})
+                      f"{span_text(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
+                      recomputed=sigma_mid, details={**details, "quantity": "sigma"}, statement="inputs_only",
+                      recomputed_range=Span(*mine.sigma), tolerance=tol)
     if sig.required_sigma is not None:
         need = sig.required_sigma.value
         facts = {**details, "quantity": "required_sigma", "required": need}
+        about = {"field": sig.required_sigma.path, "statement": "required_sigma",
+                 "printed": Shown.of(sig.required_sigma), "recomputed_range": Span(*mine.sigma),
+                 "tolerance": tol}
         if above(sig.required_sigma, mine.sigma[1], tol):
-            yield Finding("fail", f"Recomputed {num_range(mine.sigma)} sigma falls short of the required "
-                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts)
+            yield Finding("fail", f"Recomputed {span_text(mine.sigma)} sigma falls short of the required "
+                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
         elif mine.sigma[0] < need:
-            yield Finding("warn", f"Recomputed {num_range(mine.sigma)} sigma reaches the required "
+            yield Finding("warn", f"Recomputed {span_text(mine.sigma)} sigma reaches the required "
                           f"{sig.required_sigma.text} sigma only within printed precision.",
-                          reported=need, recomputed=sigma_mid, details=facts)
+                          reported=need, recomputed=sigma_mid, details=facts, **about)
         else:
-            yield Finding("pass", f"Recomputed {num_range(mine.sigma)} sigma clears the required "
-                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts)
+            yield Finding("pass", f"Recomputed {span_text(mine.sigma)} sigma clears the required "
+                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
         yield from _criterion(claim, mine, tol)
 
 
@@ -330,3 +355,40 @@ def check(claim: Claim) -> Iterator[Finding]:
     tol = claim.tolerance
     found = list(_sigma_vs_p(claim, tol)) + list(_against_recomputed(claim, tol))
     yield from found
+
+
+SPEC = CheckSpec(
+    id="significance",
+    title="Significance",
+    run=check,
+    statements={
+        "sigma_vs_p": Statement(
+            question=("How was {what} obtained from the printed significance? Neither sidedness "
+                      "turns the one into the other."),
+            if_reproduced=("Was {what} computed {reproduced}? If so, please state that convention "
+                           "beside the number and use it throughout; if not, please say how it was computed."),
+            reproducible=True),
+        "sigma_vs_inputs": Statement(
+            question=("How was the significance computed from the estimate, the threshold and the errors? "
+                      "None of the conventions we tried reproduces the printed value."),
+            if_reproduced=("Was {what} computed {reproduced}? If so, please state that convention "
+                           "beside the number and use it throughout; if not, please say how it was computed."),
+            reproducible=True),
+        "p_vs_inputs": Statement(
+            question=("How was the p-value computed from the estimate, the threshold and the errors? "
+                      "None of the conventions we tried reproduces the printed value."),
+            if_reproduced=("Was {what} computed {reproduced}? If so, please state that convention "
+                           "beside the number and use it throughout; if not, please say how it was computed."),
+            reproducible=True),
+        "required_sigma": Statement(
+            question=("On what basis does the claim reach the required significance, given that the "
+                      "printed estimate, threshold and errors give less?")),
+        "criterion": Statement(
+            question=("Under which error does the claim reach {what}? The heavy-output criterion takes the "
+                      "error over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached."),
+            if_reproduced=("Is {what} reached only {reproduced}? The heavy-output criterion takes the error "
+                           "over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached.")),
+        "inputs_only": ABOUT_THE_CLAIM,
+        "needs_inputs": ABOUT_THE_CLAIM,
+    },
+)

@@ -8,6 +8,7 @@ import math
 
 from .. import wording
 from .arguments import finite as _finite
+from .arguments import value as _value
 from .arguments import whole as _whole
 
 HELP = ("plan an experiment: the samples (circuits, for heavy-output) needed to reach a significance "
@@ -23,14 +24,14 @@ def _positive(text: str) -> float:
 
 
 def _not_negative(text: str) -> float:
-    x = _finite(text)
+    x = _value(text)
     if x < 0:
         raise argparse.ArgumentTypeError(f"must be zero or more, got {text!r}")
     return x
 
 
 def _power(text: str) -> float:
-    x = _finite(text)
+    x = _value(text)
     if not 0.5 <= x < 1:
         raise argparse.ArgumentTypeError(f"must lie in [0.5, 1), such as 0.8 or 0.9; got {text!r}")
     return x
@@ -45,15 +46,18 @@ def add_parser(sub) -> None:
                        "sqrt(v/N), v the metric model's per-sample variance at the expected value; a "
                        "systematic error adds in quadrature and caps the significance at (F - T)/S.")
     p.add_argument("--metric", required=True, choices=list(METRICS), help="the metric model")
-    p.add_argument("--fidelity", required=True, type=_finite, metavar="F",
-                   help="the value you expect to measure (fidelity, heavy-output probability, proportion, mean)")
-    p.add_argument("--threshold", type=_finite, metavar="T",
+    # Option names from the claim vocabulary (estimate, threshold, required_sigma, syst_error, samples,
+    # circuits, qubits, sd); the first names (--fidelity, --sigma, --syst) still work.
+    p.add_argument("--estimate", "--fidelity", dest="fidelity", required=True, type=_value, metavar="F",
+                   help="the value you expect to measure: a fidelity, heavy-output probability, proportion "
+                   "or mean (80%% is read as 0.8)")
+    p.add_argument("--threshold", type=_value, metavar="T",
                    help="the value the claim must exceed (heavy-output: 2/3 unless given)")
-    p.add_argument("--sigma", type=_positive, metavar="Z",
-                   help="the significance the claim must reach (heavy-output: 2 unless given)")
+    p.add_argument("--required-sigma", "--sigma", dest="sigma", type=_positive, metavar="Z",
+                   help="the significance the claim must reach, its required_sigma (heavy-output: 2 unless given)")
     p.add_argument("--power", type=_power, default=0.8, metavar="P",
-                   help="wanted probability of reaching Z (default 0.8)")
-    p.add_argument("--syst", type=_not_negative, default=0.0, metavar="S",
+                   help="wanted probability of reaching Z (default 0.8; 80%% works too)")
+    p.add_argument("--syst-error", "--syst", dest="syst", type=_not_negative, default=0.0, metavar="S",
                    help="systematic error, added in quadrature (default 0)")
     p.add_argument("--circuits", type=_count, metavar="K",
                    help="heavy-output: the circuits you have; also report what they can detect")
@@ -84,7 +88,7 @@ def run(args, stdout, stderr) -> int:
     if args.metric == "heavy-output":
         threshold = HEAVY_DEFAULTS["threshold"] if threshold is None else threshold
         sigma = HEAVY_DEFAULTS["sigma"] if sigma is None else sigma
-    for option, value in (("--threshold", threshold), ("--sigma", sigma)):
+    for option, value in (("--threshold", threshold), ("--required-sigma", sigma)):
         if value is None:
             _fail(option, f"is needed for {args.metric}", "give the value the plan must reach")
     if args.metric == "mean" and args.sd is None:
@@ -92,7 +96,7 @@ def run(args, stdout, stderr) -> int:
     if args.qubits is not None and args.metric != "linear-xeb":
         _fail("--qubits", f"enters only the linear-xeb variance, not {args.metric}'s", "leave it out")
     if not model.lowest <= args.fidelity <= model.highest:
-        _fail("--fidelity", f"{args.fidelity:g} lies outside [{model.lowest:g}, {model.highest:g}], "
+        _fail("--estimate", f"{args.fidelity:g} lies outside [{model.lowest:g}, {model.highest:g}], "
               f"the range of a {model.summary}", "give a value the metric can take")
     inputs = ModelInputs(dimension=dimension_of(args.qubits) if args.metric == "linear-xeb" else None,
                          sd=args.sd)
@@ -116,7 +120,7 @@ def run(args, stdout, stderr) -> int:
 
         raise ClaimcheckError("claimcheck plan", "the values given put the sample count beyond double precision "
                               "(a difference F - T or a systematic too small or too large)",
-                              "give --fidelity, --threshold, --syst and --sd of ordinary size") from None
+                              "give --estimate, --threshold, --syst-error and --sd of ordinary size") from None
     if args.json:
         from ..render.json import dumps
 

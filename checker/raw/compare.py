@@ -73,6 +73,9 @@ def _estimate(claim: Claim, result: RawResult) -> Iterator[Finding]:
     if head.estimate is None:
         yield Finding("skip", f"The raw data give no {result.metric} estimate ({head.note}).")
         return
+    if printed is None:
+        yield Finding("skip", "The claim prints no estimate to compare with the data's.")
+        return
     raw = (head.estimate * factor[0], head.estimate * factor[1])
     raw = (min(raw), max(raw))
     se = head.stat_error_data or head.stat_error

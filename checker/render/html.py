@@ -21,8 +21,9 @@ from typing import Any, Iterable, Mapping, Sequence
 
 from ..claim.model import Claim, Reported
 from ..report import Finding, Report
-from .notes import (CAUTION, Point, STATUS_WORDS, VERDICT_LINES, field_words, is_plain_number, num,
-                    one_line, points, printed_numbers, summary_lines)
+from ..vocabulary import CAUTION, COMBINATION_NAMES, STATUS_WORDS, TALLY_WORDS, VERDICT_SENTENCES
+from ..wording import num
+from .notes import Point, field_words, is_plain_number, one_line, points, printed_numbers, summary_lines
 
 # --- page ---------------------------------------------------------------------------
 
@@ -124,8 +125,6 @@ _SHAPES = {
     "skip": '<circle cx="8" cy="8" r="5.6" stroke="currentColor" stroke-width="1.8" fill="none"/>'
             '<rect x="5" y="7.2" width="6" height="1.6" fill="currentColor"/>',
 }
-_TALLY_WORDS = {"fail": ("flag", "flags"), "warn": ("note", "notes"), "pass": ("agrees", "agree"),
-                "skip": ("not checked", "not checked")}
 _VERDICT_STATUS = {"inconsistent": "fail", "consistent": "pass", "incomplete": "skip"}
 
 
@@ -229,12 +228,12 @@ def _verdict_panel(report: Report) -> str:
     verdict = report.verdict
     first, second = summary_lines(report)
     c = report.counts()
-    tally = "".join(f"<span>{c[s]} {escape(_TALLY_WORDS[s][c[s] != 1])}</span>"
+    tally = "".join(f"<span>{c[s]} {escape(TALLY_WORDS[s][c[s] != 1])}</span>"
                     for s in ("fail", "warn", "pass", "skip"))
     return (f'<section class="cc-verdict {verdict}" id="verdict" aria-label="Verdict">'
             f'<div class="cc-big cc-{_VERDICT_STATUS[verdict]}">{_shape(_VERDICT_STATUS[verdict])}'
             f"{escape(verdict)}</div><div class=\"cc-tally\">{tally}</div>"
-            f"<p>{escape(_sentence(VERDICT_LINES[verdict].split(': ', 1)[-1]))}</p>"
+            f"<p>{escape(_sentence(VERDICT_SENTENCES[verdict]))}.</p>"
             f"<p>{escape(first)}</p></section>")
 
 
@@ -337,17 +336,20 @@ def _significance_figure(report: Report, claim: Claim) -> str | None:
         return None
     if claim.threshold is None or claim.stat_error is None or not claim.stat_error.value > 0:
         return None
+    if claim.estimate is None:
+        return None
     sig = claim.significance
     width, label = claim.stat_error.value, "stat_error"
     syst = claim.syst_error.value if claim.syst_error is not None else None
-    if sig.systematics in ("quadrature", "marginalized") and syst:
-        # The drawing width of the null under the stated convention; the check did the statistics.
+    if any(f.details.get("syst_in_error") for f in found) and syst:
+        # The check says the systematic error entered the significance: the null drawn is that wide.
         width, label = math.hypot(width, syst), "stat_error and syst_error in quadrature"
     recomputed = None
     for f in found:
-        d = f.details
-        if d.get("quantity") == "sigma" and _is_num(d.get("sigma_low")) and _is_num(d.get("sigma_high")):
-            recomputed = (d["sigma_low"], d["sigma_high"])
+        r = f.recomputed_range
+        if (f.statement in ("sigma_vs_inputs", "inputs_only") and r is not None and r.scale == "linear"
+                and _is_num(r.low) and _is_num(r.high)):
+            recomputed = (r.low, r.high)
             break
     printed = sig.sigma.value if sig.sigma is not None else None
     svg = significance_svg(claim.estimate.value, claim.threshold.value, width,
@@ -376,9 +378,6 @@ def _significance_figure(report: Report, claim: Claim) -> str | None:
                        table_html(["quantity", "value", "from"], rows, numeric=(1,)))
 
 
-_METHOD_LABELS = {"equal": "equal weights", "samples": "weights by samples",
-                  "inverse-variance": "inverse-variance", "random-effects": "random effects (DL)",
-                  "paule-mandel": "random effects (Paule-Mandel)"}
 
 
 def _forest_figure(report: Report, claim: Claim) -> str | None:
@@ -396,7 +395,7 @@ def _forest_figure(report: Report, claim: Claim) -> str | None:
             if not isinstance(value, Mapping) or not _is_num(value.get("estimate")):
                 continue
             err = value.get("stat_error") if _is_num(value.get("stat_error")) else None
-            label = _METHOD_LABELS.get(key, one_line(key))
+            label = COMBINATION_NAMES.get(key, one_line(key))
             combined.append((label, value["estimate"], err, key == stated))
             rows.append([label + (" (stated)" if key == stated else ""), num(value["estimate"]), num(err)])
     printed = None
@@ -448,10 +447,11 @@ def _budget_figure(report: Report, claim: Claim) -> str | None:
     sd = d.get("predicted_sd") if _is_num(d.get("predicted_sd")) else None
     expo = d.get("predicted_exponential") if _is_num(d.get("predicted_exponential")) else None
     svg = budget_svg(comps, d["predicted"], sd, measured, expo,
-                     measured_text=claim.estimate.text if measured == claim.estimate.value else None)
+                     measured_text=claim.estimate.text if claim.estimate and measured == claim.estimate.value
+                     else None)
     rows.append(["predicted (product)", "", "", num(d["predicted"]) + (f" ± {num(sd)}" if sd else "")])
     if measured is not None:
-        shown = claim.estimate.text if measured == claim.estimate.value else num(measured)
+        shown = claim.estimate.text if claim.estimate and measured == claim.estimate.value else num(measured)
         rows.append(["measured (estimate)", "", "", shown])
     if _is_num(d.get("ratio")):
         rows.append(["measured / predicted", "", "", num(d["ratio"])])

@@ -27,6 +27,9 @@ def clean(value: Any) -> Any:
 
 
 def finding_to_dict(f: Finding) -> dict:
+    from .notes import make_point  # the words of the referee notes: title and question
+
+    point = make_point(f)
     return {
         "check": f.check,
         "status": f.status,
@@ -40,6 +43,8 @@ def finding_to_dict(f: Finding) -> dict:
         "printed": clean(asdict(f.printed)) if f.printed is not None else None,
         "recomputed_range": clean(asdict(f.recomputed_range)) if f.recomputed_range is not None else None,
         "tolerance": clean(f.tolerance),
+        "title": point.heading,
+        "question": point.question,
     }
 
 

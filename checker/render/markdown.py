@@ -13,8 +13,8 @@ import re
 
 from ..claim.model import Claim
 from ..report import Report
-from .notes import (CAUTION, CHECK_TITLES, Point, STATUS_WORDS, field_words, is_plain_number, one_line, points,
-                    summary_lines)
+from ..vocabulary import CAUTION, STATUS_WORDS
+from .notes import Point, field_words, is_plain_number, one_line, points, summary_lines, title_of
 
 # CommonMark lets a backslash escape any ASCII punctuation.  Escape what could
 # start markup mid-line; leave intraword underscores ("stat_error") alone, since
@@ -74,7 +74,7 @@ def _brief_passes(agreed: list[Point]) -> list[str]:
         by_check.setdefault(p.check, []).append(p)
     lines = []
     for group in by_check.values():
-        title = CHECK_TITLES.get(group[0].check, group[0].heading)
+        title = title_of(group[0].check)
         if len(group) == 1:
             lines.append(f"- {md(group[0].heading)}: {md(group[0].message)}")
         elif all(p.part is not None for p in group[1:]) and sum(p.part is None for p in group) <= 1:
@@ -111,7 +111,8 @@ def render_markdown(report: Report, claim: Claim) -> str:
     where = f"Numbers as read from {_code(report.file)}"
     if claim.source:
         where += f" (source: {md(claim.source)})"
-    out += [where + f"; metric {_code(claim.metric)}, headline estimate {_code(claim.estimate.text)}.", ""]
+    headline = f"headline estimate {_code(claim.estimate.text)}" if claim.estimate else "no headline estimate"
+    out += [where + f"; metric {_code(claim.metric)}, {headline}.", ""]
 
     raised = list(points(report, claim, ("fail", "warn")))
     if raised:

@@ -22,7 +22,8 @@ from typing import Iterable, Sequence
 
 from ..report import Finding, Report
 from .html import _verdict_panel, figure_html, html_page, status_mark, table_html
-from .notes import CHECK_TITLES, num, one_line
+from ..wording import num, p_cell
+from .notes import one_line, title_of
 from .raw_text import AT_WORDS, METRIC_WORDS, TEST_WORDS, _visible
 
 MAX_CIRCUIT_ROWS = 500  # beyond this the table is cut; --json has them all
@@ -38,12 +39,6 @@ RAW_TITLES = {
 }
 _RESAMPLING_WORDS = {"circuits": "whole circuits resampled", "binned": "samples resampled by value bins",
                      "binomial": "binomial draws of the heavy count"}
-
-
-def _p(p) -> str:
-    if p is None:
-        return "n/a"
-    return "< 1e-300" if p == 0 else num(p, 2)
 
 
 def _tile(name: str, value: str) -> str:
@@ -98,7 +93,7 @@ def _fit_section(result) -> str:
     if result.goodness_of_fit:
         size = result.goodness_of_fit[0].samples
         rows = [[AT_WORDS.get(t.at, t.at), num(t.fidelity, 4), TEST_WORDS.get(t.test, t.test),
-                 num(t.statistic), _p(t.p_value)] for t in result.goodness_of_fit]
+                 num(t.statistic), p_cell(t.p_value)] for t in result.goodness_of_fit]
         out.append(table_html(["model at", "fidelity F", "test", "statistic", "p-value"], rows,
                               caption=f"Goodness of fit of x = D p to the Porter-Thomas mixture ({size:,} samples)",
                               numeric=(1, 3, 4)))
@@ -173,7 +168,7 @@ def _circuit_section(result) -> str:
 
 
 def _heading(f: Finding) -> str:
-    title = RAW_TITLES.get(f.check) or CHECK_TITLES.get(f.check) or f.check
+    title = RAW_TITLES.get(f.check) or title_of(f.check)
     if f.details.get("numbers") == "raw":
         title += " (with the raw data's numbers)"
     return title

@@ -13,19 +13,17 @@ from typing import Sequence
 
 from ..report import Finding, Report
 from .markdown import md
-from .notes import CAUTION, CHECK_TITLES, STATUS_WORDS, num, summary_lines
+from ..vocabulary import CAUTION, STATUS_WORDS
+from ..wording import num, p_equals
+from .notes import summary_lines, title_of
 from .raw_html import RAW_TITLES, _RESAMPLING_WORDS
 from .raw_text import METRIC_WORDS, TEST_WORDS, _visible
 
 _AT = {"fitted": "the fitted F", "threshold": "the threshold F", "zero": "F"}
 
 
-def _p(p) -> str:
-    return "p < 1e-300" if p == 0 else f"p = {num(p, 2)}"
-
-
 def _title(f: Finding) -> str:
-    title = RAW_TITLES.get(f.check) or CHECK_TITLES.get(f.check) or f.check
+    title = RAW_TITLES.get(f.check) or title_of(f.check)
     return title + (" (with the raw data's numbers)" if f.details.get("numbers") == "raw" else "")
 
 
@@ -63,7 +61,7 @@ def render_raw_markdown(result, report: Report | Sequence[Finding] | None = None
     for t in result.goodness_of_fit:
         lines.append(f"- {TEST_WORDS.get(t.test, t.test)} test of the Porter-Thomas mixture at "
                      f"{_AT.get(t.at, t.at)} = {num(t.fidelity, 4)}: statistic {num(t.statistic)}, "
-                     f"{_p(t.p_value)}")
+                     f"{p_equals(t.p_value)}")
     b = result.bootstrap
     if b is not None:
         lines.append(f"- Bootstrap ({b.replicates:,} replicates, {_RESAMPLING_WORDS.get(b.resampling, b.resampling)}, "

@@ -5,23 +5,14 @@ from __future__ import annotations
 
 
 from .. import wording
-from .text import CAUTION, MARKS
-
-METRIC_WORDS = {"linear-xeb": "linear XEB", "log-xeb": "log XEB", "heavy-output": "heavy output"}
-TEST_WORDS = {"kolmogorov-smirnov": "Kolmogorov-Smirnov", "cramer-von-mises": "Cramer-von Mises"}
+from ..vocabulary import CAUTION_SHORT, FIT_TEST_NAMES as TEST_WORDS, METRIC_NAMES as METRIC_WORDS, STATUS_MARKS
+from ..wording import p_equals
 AT_WORDS = {"fitted": "fitted", "threshold": "threshold", "zero": "zero"}
 MAX_CIRCUIT_LINES = 12
 
 
 def _n(x, digits: int = 4) -> str:
     return wording.num(x, digits)
-
-
-def _p(p: float) -> str:
-    """``p = 0.037``, or ``p < 1e-300`` where the p-value underflows."""
-    if p is None:
-        return "p n/a"
-    return "p < 1e-300" if p == 0 else f"p = {_n(p, 2)}"
 
 
 def render_raw_text(result) -> str:
@@ -54,7 +45,7 @@ def render_raw_text(result) -> str:
         for t in result.goodness_of_fit:
             by_at.setdefault(t.at, []).append(t)
         for at, tests in by_at.items():
-            parts = "   ".join(f"{TEST_WORDS[t.test]} {_n(t.statistic, 3)}, {_p(t.p_value)}" for t in tests)
+            parts = "   ".join(f"{TEST_WORDS[t.test]} {_n(t.statistic, 3)}, {p_equals(t.p_value)}" for t in tests)
             lines.append(f"  {AT_WORDS[at]:<9} F = {_n(tests[0].fidelity)}   {parts}")
     b = result.bootstrap
     if b is not None:
@@ -79,7 +70,7 @@ def render_raw_text(result) -> str:
         lines += ["", f"Against the claim {result.claim_file}:"]
         shown, same = _visible(result.findings)
         for f in shown:
-            lines.append(f"{MARKS[f.status]} {f.check:<{width}}  {f.message}")
+            lines.append(f"{STATUS_MARKS[f.status]} {f.check:<{width}}  {f.message}")
         if same:
             lines.append(f"       ({same} claim check(s) give the same result with the raw data's numbers; "
                          "--json lists them)")
@@ -87,7 +78,7 @@ def render_raw_text(result) -> str:
         lines += ["", f"verdict: {result.verdict} ({counts['fail']} flagged, {counts['warn']} noted, "
                   f"{counts['pass']} agree, {counts['skip']} not checked)"]
         if counts["fail"] or counts["warn"]:
-            lines.append(CAUTION)
+            lines.append(CAUTION_SHORT)
     return "\n".join(lines) + "\n"
 
 
@@ -116,13 +107,16 @@ def _visible(findings):
     return shown, same
 
 
-def render_drift_text(result, file: str) -> str:
-    """The stability summary of one series."""
+def render_drift_text(result, file: str, origin: str | None = None) -> str:
+    """The stability summary of one series; ``origin`` is the first point's
+    date-time when the times were date-times (then counted in hours since it)."""
     r = result
-    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)} "
+    unit = f" hours since the first point ({origin})" if origin else ""
+    per = "per hour" if origin else "per unit time"
+    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)}{unit} "
              f"({r.window_points} points)", ""]
-    lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} per unit time; {r.level:.0%} interval "
-                 f"{_n(r.slope_low)} to {_n(r.slope_high)} ({_p(r.slope_p_value)})")
+    lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} {per}; {r.level:.0%} interval "
+                 f"{_n(r.slope_low)} to {_n(r.slope_high)} ({p_equals(r.slope_p_value)})")
     lines.append(f"  level at window  {_n(r.trend_level)} +- {_n(r.trend_level_error, 3)} (intercept at the window "
                  "centre)")
     lines.append(f"  trend across window {_n(r.trend_change, 3)} (as a spread {_n(r.trend_spread, 3)})")
@@ -139,7 +133,7 @@ def render_drift_text(result, file: str) -> str:
                  "quadrature)")
     if r.constant_chi2 is not None:
         lines.append(f"  constant model   chi2 = {_n(r.constant_chi2, 4)} for {r.constant_dof} dof, "
-                     f"{_p(r.constant_p_value)}")
+                     f"{p_equals(r.constant_p_value)}")
     verdict = ("rejected (" + " and ".join({"slope": "the slope differs from 0",
                                             "scatter": "the scatter exceeds the stated errors"}[x]
                                            for x in r.reasons) + f", alpha {r.alpha:g})"

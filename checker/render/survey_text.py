@@ -6,15 +6,16 @@ from __future__ import annotations
 import math
 import re
 
+from ..vocabulary import CAUTION_SHORT
+from ..wording import plural
 from .json import dumps
 
 SHOW_AT_MOST = 20
-CAUTION = ("A flag is a question for the authors, not proof of an error: claimcheck checks the "
-           "arithmetic and the stated conventions, not the experiment.")
 
 
-def _plural(n: int, one: str, many: str | None = None) -> str:
-    return f"{n:,} {one if n == 1 else (many or one + 's')}"
+def _verb(n: int, many: str, one: str | None = None) -> str:
+    """The verb agreeing with a count: "1 claim states", "2 claims state"."""
+    return (one or many + "s") if n == 1 else many
 
 
 def render_batch_text(frame, summary: dict) -> str:
@@ -22,20 +23,21 @@ def render_batch_text(frame, summary: dict) -> str:
     claims that were flagged."""
     v = summary["verdicts"]
     unit = summary.get("unit", "row")
-    lines = [f"{summary['table']}: {_plural(summary['rows'], unit)}; "
-             f"{_plural(summary['checked'], 'claim')} checked"
-             + (f", {_plural(summary['unusable'], unit)} could not be used" if summary["unusable"] else ""),
+    lines = [f"{summary['table']}: {plural(summary['rows'], unit)}; "
+             f"{plural(summary['checked'], 'claim')} checked"
+             + (f", {plural(summary['unusable'], unit)} could not be used" if summary["unusable"] else ""),
              f"verdicts: {v['consistent']:,} consistent, {v['inconsistent']:,} inconsistent, "
              f"{v['incomplete']:,} incomplete"]
     need = summary["with_required_sigma"]
     clear = summary["clear_required_sigma"]
     if need:
-        lines.append(f"required sigma: {_plural(need, 'claim')} state one and have a recomputed significance; "
-                     f"{clear['recomputed']:,} clear it as recomputed, {clear['holm']:,} after Holm and "
+        lines.append(f"required sigma: {plural(need, 'claim')} {_verb(need, 'state')} one and "
+                     f"{_verb(need, 'have', 'has')} a recomputed significance; {clear['recomputed']:,} "
+                     f"{_verb(clear['recomputed'], 'clear')} it as recomputed, {clear['holm']:,} after Holm and "
                      f"{clear['bh']:,} after Benjamini-Hochberg adjustment across "
-                     f"{_plural(summary['tested'], 'recomputed p-value')}")
+                     f"{plural(summary['tested'], 'recomputed p-value')}")
     elif summary["tested"]:
-        lines.append(f"adjusted across {_plural(summary['tested'], 'recomputed p-value')}; "
+        lines.append(f"adjusted across {plural(summary['tested'], 'recomputed p-value')}; "
                      "no claim states a required_sigma to hold them against")
     flagged = frame[frame["verdict"] == "inconsistent"]
     if len(flagged):
@@ -48,7 +50,7 @@ def render_batch_text(frame, summary: dict) -> str:
         if len(flagged) > SHOW_AT_MOST:
             lines.append(f"  ... and {len(flagged) - SHOW_AT_MOST:,} more (write them all with --out)")
     if v["inconsistent"]:
-        lines += ["", CAUTION]
+        lines += ["", CAUTION_SHORT]
     return "\n".join(lines) + "\n"
 
 

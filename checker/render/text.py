@@ -5,15 +5,7 @@ from __future__ import annotations
 
 from ..report import Report
 from ..visible import visible
-
-MARKS = {"pass": "  ok ", "warn": " note", "fail": "FLAG ", "skip": "  -- "}
-VERDICT_WORDS = {
-    "consistent": "consistent: no printed number contradicts the claim's own inputs",
-    "inconsistent": "inconsistent: some printed numbers do not follow from the claim's own inputs",
-    "incomplete": "incomplete: the claim gives too little to check anything",
-}
-CAUTION = ("A flag is a question for the authors, not proof of an error: claimcheck checks the "
-           "arithmetic and the stated conventions, not the experiment.")
+from ..vocabulary import CAUTION_SHORT, COUNT_WORDS, STATUS_MARKS, verdict_line
 
 
 def render_text(report: Report) -> str:
@@ -21,13 +13,12 @@ def render_text(report: Report) -> str:
     lines = [f"{report.title}", f"  from {report.file}", ""]
     for f in report.findings:
         label = f" [{f.details['part']}]" if "part" in f.details and f.details["part"] not in f.message else ""
-        lines.append(f"{MARKS[f.status]} {f.check:<{width}}  {f.message}{label}")
+        lines.append(f"{STATUS_MARKS[f.status]} {f.check:<{width}}  {f.message}{label}")
     counts = report.counts()
-    tally = ", ".join(f"{counts[s]} {word}" for s, word in
-                      (("fail", "flagged"), ("warn", "noted"), ("pass", "agree"), ("skip", "not checked")))
-    lines += ["", f"verdict: {VERDICT_WORDS[report.verdict]} ({tally})"]
+    tally = ", ".join(f"{counts[s]} {COUNT_WORDS[s]}" for s in ("fail", "warn", "pass", "skip"))
+    lines += ["", f"verdict: {verdict_line(report.verdict)} ({tally})"]
     if report.verdict == "inconsistent" or counts["warn"]:
-        lines.append(CAUTION)
+        lines.append(CAUTION_SHORT)
     return visible("\n".join(lines) + "\n")  # a title or label cannot drive the terminal
 
 
@@ -35,4 +26,5 @@ def render_verdict_line(report: Report) -> str:
     counts = report.counts()
     failed = ", ".join(report.failed_checks())
     extra = f" ({failed})" if failed else ""
-    return f"{report.verdict}{extra}; {counts['fail']} flagged, {counts['warn']} noted, {counts['pass']} agree\n"
+    tally = ", ".join(f"{counts[s]} {COUNT_WORDS[s]}" for s in ("fail", "warn", "pass"))
+    return f"{report.verdict}{extra}; {tally}\n"

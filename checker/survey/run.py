@@ -97,7 +97,7 @@ def claim_record(claim, report, source: str) -> tuple:
     return (source, claim.title, claim.source or "", claim.metric, report.verdict,
             ";".join(report.failed_checks()), counts["fail"], counts["warn"], counts["pass"],
             counts["skip"], sig.sigma.text if sig.sigma else "", sig.p_value.text if sig.p_value else "",
-            _value(sig.required_sigma), claim.estimate.value, _value(claim.threshold),
+            _value(sig.required_sigma), _value(claim.estimate), _value(claim.threshold),
             _value(claim.stat_error), _value(iv.low) if iv else NAN, _value(iv.high) if iv else NAN,
             _value(iv.level) if iv else NAN, threshold_error, at_threshold,
             0.0 if math.isnan(syst) else syst, sig.sided == "two", "")

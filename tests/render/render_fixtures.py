@@ -16,7 +16,7 @@ from pathlib import Path
 
 from checker.checks import run_checks
 from checker.claim import read_claim
-from checker.report import Finding, Report
+from checker.report import Finding, Report, Shown
 
 HERE = Path(__file__).resolve().parent
 CLAIMS = HERE / "claims"
@@ -63,7 +63,8 @@ def combination_findings(claim) -> list[Finding]:
         f"give {stated['estimate']:.3g} ± {stated['stat_error']:.2g}; inverse-variance weights give "
         f"{methods['inverse-variance']['estimate']:.3g} ± {methods['inverse-variance']['stat_error']:.2g}.",
         reported=c.stat_error.value, recomputed=stated["stat_error"],
-        reproduced_by={"method": "inverse-variance"},
+        reproduced_by={"method": "inverse-variance"}, field="combination.stat_error", statement="combined",
+        printed=Shown.of(c.stat_error),
         details={"summary": True, "method": c.method, "methods": methods,
                  "printed": {"estimate": c.estimate.value, "stat_error": c.stat_error.value}},
         check="combination")
@@ -74,7 +75,8 @@ def combination_findings(claim) -> list[Finding]:
         "fail" if p_q < 0.01 else "pass",
         f"Cochran's Q = {q:.3g} on {df} degrees of freedom (p = {p_q:.2g}, I^2 = {100 * max(0.0, (q - df) / q):.0f}%): "
         "the parts disagree more than their errors allow, and the combined error was not scaled for it.",
-        reported=None, recomputed=q,
+        reported=None, recomputed=q, field="combination.stat_error", statement="scatter_not_allowed",
+        printed=Shown.of(c.stat_error),
         details={"Q": q, "df": df, "p_Q": p_q, "I2": max(0.0, (q - df) / q), "H": h,
                  "scale_factor": max(1.0, h), "tau2": float(dl.tau2)},
         check="heterogeneity")
@@ -101,7 +103,8 @@ def budget_finding(claim) -> Finding:
         "warn" if not 0.5 <= ratio <= 2.0 else "pass",
         f"The error budget predicts {predicted:.3g} ± {predicted * math.sqrt(log_var):.2g}; the measured "
         f"{claim.estimate.text} is {ratio:.2g} times that.",
-        reported=measured, recomputed=predicted,
+        reported=measured, recomputed=predicted, field="estimate", statement="budget",
+        printed=Shown.of(claim.estimate),
         details={"components": comps, "predicted": predicted,
                  "predicted_sd": predicted * math.sqrt(log_var),
                  "predicted_exponential": math.exp(-total), "measured": measured, "ratio": ratio},

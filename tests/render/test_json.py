@@ -26,7 +26,10 @@ def test_contract_keys():
     assert data["findings"] == [{"check": "significance", "status": "fail", "message": "x.", "reported": 0.0253,
                                  "recomputed": 0.0127, "reproduced_by": {"sided": "two"},
                                  "details": {"sigma_low": 2.2}, "field": None, "statement": None,
-                                 "printed": None, "recomputed_range": None, "tolerance": None}]
+                                 "printed": None, "recomputed_range": None, "tolerance": None,
+                                 "title": "Significance",
+                                 "question": ("Was this number obtained under the two-sided convention "
+                                              "(both tails)? Please say how it was computed.")}]
     assert data["verdict"] == "inconsistent"
 
 
@@ -43,6 +46,9 @@ def test_self_describing_keys():
                             "log10_high": -399.82391}
     assert d["recomputed_range"] == {"low": -402.1, "high": -401.7, "scale": "log10"}
     assert d["tolerance"] == 0.02
+    # The check's own title and question (checker/checks/significance.py, SPEC).
+    assert d["title"] == "Significance"
+    assert d["question"].startswith("How was the p-value computed from the estimate")
 
 
 def test_non_finite_numbers_become_null():

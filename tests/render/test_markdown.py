@@ -66,7 +66,7 @@ def test_point_names_the_method_that_reproduces_the_print(monkeypatch):
     text = render_markdown(report, claim)
     block = text.split("1. **Combination of the parts** (flag).")[1].split("\n2. ")[0]
     assert "- Printed: combined error `0.16e-3` (field `combination.stat_error`)." in block
-    assert "- The claim's inputs imply: `0.00032`." in block
+    assert "- The claim's inputs imply: `0.320e-3`." in block  # like the printed 0.16e-3
     assert "- The print would follow with inverse-variance weights." in block
 
 
@@ -162,3 +162,22 @@ def test_cli_writes_markdown_and_refuses_the_input(tmp_path, monkeypatch):
     status = run(["check", str(source), "--markdown", str(source)], io.StringIO(), stderr)
     assert status == 2 and "is one of the input files" in stderr.getvalue()
     assert source.read_bytes() == before
+
+
+def test_the_extrapolation_point_names_syst_error_and_quotes_its_own_number(monkeypatch, tmp_path):
+    # The example of issue 10 (invented numbers): the factor's error 0.100 times the
+    # combined 2.00e-3 is 0.200e-3 of systematic error (JCGM 100:2008, eq. (10)).
+    from checker.checks import run_checks
+
+    path = tmp_path / "extrapolation.yaml"
+    path.write_text("title: Invented extrapolation\nmetric: linear-xeb\nestimate: 2.00e-3\nstat_error: 0.30e-3\n"
+                    "syst_error: 0.30e-3\ncombination: {method: inverse-variance, estimate: 2.00e-3, "
+                    "stat_error: 0.30e-3}\nextrapolation: {factor: 1.000, factor_error: 0.100}\n", encoding="utf-8")
+    monkeypatch.chdir(tmp_path)
+    claim = read_claim("extrapolation.yaml")
+    report = run_checks(claim, ["extrapolation"])
+    syst = next(f for f in report.findings if f.status == "warn")
+    assert syst.field == "syst_error" and "0.200e-3" in syst.message
+    text = render_markdown(report, claim)
+    assert "- Printed: systematic error `0.30e-3` (field `syst_error`)." in text
+    assert "- The claim's inputs imply: `0.200e-3`." in text

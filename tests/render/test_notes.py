@@ -7,9 +7,9 @@ import math
 
 import pytest
 
-from checker.render.notes import (convention_words, make_point, num, num_range, printed_for,
-                                  printed_numbers, summary_lines)
-from checker.report import Finding, Report
+from checker.render.notes import make_point, printed_numbers, summary_lines
+from checker.wording import num
+from checker.report import Finding, Report, Shown, Span
 
 from render_fixtures import four_parts_report, load, sidedness_report
 
@@ -22,27 +22,6 @@ def test_num(x, text):
     assert num(x) == text
 
 
-def test_num_range_collapses_equal_ends():
-    assert num_range(5.741, 6.07) == "5.74 to 6.07"
-    assert num_range(5.5512, 5.5549) == "5.55"
-
-
-@pytest.mark.parametrize("conv, words", [
-    ({"sided": "two"}, "under the two-sided convention (both tails)"),
-    ({"systematics": "quadrature"}, "with the systematic error added in quadrature"),
-    ({"error_at": "threshold"}, "with the standard error taken at the threshold (under the null)"),
-    ({"method": "inverse-variance"}, "with inverse-variance weights"),
-    ({"method": "wilson"}, "with the Wilson interval"),
-    ({"samples": 26000000}, "with about 2.6e7 samples"),
-    ({"sided": "two", "systematics": "none"},
-     "under the two-sided convention (both tails) and with the systematic error left out of the significance"),
-    ({"unheard_of": "x"}, "with unheard of x"),
-    (None, None), ({}, None),
-])
-def test_convention_words(conv, words):
-    assert convention_words(conv) == words
-
-
 def test_printed_numbers_keep_their_text(monkeypatch):
     claim = load("four_parts.yaml", monkeypatch)
     by_path = {r.path: r.text for r in printed_numbers(claim)}
@@ -52,25 +31,24 @@ def test_printed_numbers_keep_their_text(monkeypatch):
     assert by_path["combination.stat_error"] == "0.16e-3"
 
 
-def test_printed_for_uses_field_quantity_part_and_value(monkeypatch):
+def test_the_point_names_the_field_the_finding_names(monkeypatch):
     claim = load("four_parts.yaml", monkeypatch)
-    by_quantity = Finding("pass", "m", reported=4.7, details={"quantity": "sigma"}, check="significance")
-    assert printed_for(by_quantity, claim).path == "significance.sigma"
-    by_part = Finding("pass", "m", reported=0.33e-3, details={"part": "family D"}, check="error-floor")
-    assert printed_for(by_part, claim).path == "parts.3.stat_error"
-    by_field = Finding("fail", "m", reported=1.0e-3, details={"field": "threshold"}, check="bounds")
-    assert printed_for(by_field, claim).path == "threshold"
-    by_value = Finding("warn", "m", reported=0.0062, check="some-new-check")
-    assert printed_for(by_value, claim).path == "error_budget.0.error"
-    nowhere = Finding("warn", "m", reported=123.456, check="some-new-check")
-    assert printed_for(nowhere, claim) is None
+    rep = claim.parts[3].stat_error
+    f = Finding("warn", "m", reported=rep.value, field=rep.path, printed=Shown.of(rep),
+                statement="above_floor", check="error-floor")
+    p = make_point(f, claim)
+    assert (p.printed, p.printed_field) == ("0.33e-3", "parts.3.stat_error")
+    # No guessing from values: a finding that names no field has no "printed" line.
+    assert make_point(Finding("warn", "m", reported=rep.value, check="error-floor"), claim).printed is None
 
 
 def test_flag_without_a_reproducing_convention(monkeypatch):
     claim = load("sidedness_slip.yaml", monkeypatch)
+    sigma = claim.significance.sigma
     f = Finding("fail", "Printed 5.9 sigma, but ... no convention reproduces it.", reported=5.9,
                 recomputed=4.1, details={"quantity": "sigma", "sigma_low": 4.0, "sigma_high": 4.2},
-                check="significance")
+                check="significance", field=sigma.path, printed=Shown.of(sigma), statement="sigma_vs_inputs",
+                recomputed_range=Span(4.0, 4.2))
     p = make_point(f, claim)
     assert p.printed == "5.9" and p.printed_field == "significance.sigma"
     assert p.implied == "4 to 4.2"
@@ -110,9 +88,11 @@ def test_summary_lines(monkeypatch):
 
 def test_required_sigma_point_shows_the_recomputed_range(monkeypatch):
     claim = load("sidedness_slip.yaml", monkeypatch)
+    need = claim.significance.required_sigma
     f = Finding("fail", "Recomputed 3.1 to 3.4 sigma falls short of the required 5 sigma.", reported=5.0,
                 recomputed=3.25, details={"quantity": "required_sigma", "sigma_low": 3.1, "sigma_high": 3.4,
-                                          "required": 5.0}, check="significance")
+                                          "required": 5.0}, check="significance", field=need.path,
+                printed=Shown.of(need), statement="required_sigma", recomputed_range=Span(3.1, 3.4))
     p = make_point(f, claim)
     assert (p.printed, p.printed_field, p.implied) == ("5", "significance.required_sigma", "3.1 to 3.4")
     assert not p.unmatched and p.question.startswith("On what basis does the claim reach")

@@ -83,7 +83,7 @@ def test_every_section_and_figure(page):
 
 def test_page_shows_the_results_numbers(inputs, page):
     # Every headline number the page prints is the result's own, formatted.
-    from checker.render.notes import num
+    from checker.wording import num
 
     _, data, _ = inputs
     result = analyse(str(data), "linear-xeb", 10, bootstrap=300, fit_sample=3000, seed=5, threshold=0.1)

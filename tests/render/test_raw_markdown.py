@@ -10,7 +10,8 @@ import pytest
 
 from checker.cli import run
 from checker.raw.analysis import analyse
-from checker.render.notes import CAUTION, num
+from checker.vocabulary import CAUTION
+from checker.wording import num
 from checker.render.raw_markdown import render_raw_markdown
 
 TITLE = "Invented <b>chip</b> *fidelity* [link](x)"

@@ -13,7 +13,8 @@ from pathlib import Path
 
 import pytest
 
-from checker.render.text import CAUTION, render_text, render_verdict_line
+from checker.render.text import render_text, render_verdict_line
+from checker.vocabulary import CAUTION_SHORT as CAUTION
 from checker.report import Finding, Report
 
 GOLDEN = Path(__file__).resolve().parent / "golden" / "text_fixed_report.txt"

@@ -1,0 +1,126 @@
+"""Every finding names the printed number it is about (issue 10): its ``field``
+exists in the claim it came from (or is None for a finding about the whole
+claim, whose statement says so), its statement is one its check declares, and
+every flag or note has a question for the authors.  Over every example claim
+and over generated claims that reach every check."""
+
+from __future__ import annotations
+
+import datetime
+from pathlib import Path
+
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+from checker.checks import run_checks
+from checker.claim import read_claim
+from checker.errors import ClaimcheckError
+
+from described import problems
+
+EXAMPLES = Path(__file__).resolve().parents[2] / "claims_examples"
+EXAMPLE_FILES = sorted(p for p in EXAMPLES.iterdir() if p.suffix in (".yaml", ".yml", ".json"))
+
+
+@pytest.mark.parametrize("path", EXAMPLE_FILES, ids=lambda p: p.name)
+def test_every_example_finding_describes_itself(path):
+    claim = read_claim(path)
+    report = run_checks(claim)
+    found = [p for f in report.findings for p in problems(f, claim)]
+    assert not found, "\n".join(found)
+
+
+NUMBER = st.one_of(
+    st.sampled_from(["0", "1", "0.5", "2.24e-3", "0.21e-3", "1e-400", "91.2%", "'< 0.001'", "2.5e7", "1.02",
+                     "-3", "0.99999", "4.2", "5.9", "3.6e-9", "0.0"]),
+    st.floats(min_value=-2.0, max_value=10.0, allow_nan=False).map(lambda x: f"{x:.3g}"))
+SMALL = st.one_of(st.floats(min_value=1e-5, max_value=0.2, allow_nan=False).map(lambda x: f"{x:.2g}"),
+                  st.sampled_from(["-0.001", "0", "1.5"]))
+COUNT = st.one_of(st.sampled_from(["1", "10", "500", "1000", "3e6", "2.5e7"]), st.integers(1, 10**7).map(str))
+
+
+@st.composite
+def claims(draw):
+    metric = draw(st.sampled_from(["linear-xeb", "log-xeb", "heavy-output", "proportion", "mean"]))
+    lines = ["title: Invented generated claim", f"metric: {metric}", f"estimate: {draw(NUMBER)}"]
+    for key, values in (("stat_error", SMALL), ("syst_error", SMALL), ("samples", COUNT), ("circuits", COUNT),
+                        ("qubits", st.sampled_from(["4", "20", "53"])), ("sd", SMALL), ("threshold", NUMBER),
+                        ("trials", COUNT), ("integer_data", st.sampled_from(["true", "false"])),
+                        ("items", st.sampled_from(["1", "3"]))):
+        if draw(st.booleans()):
+            lines.append(f"{key}: {draw(values)}")
+    sig = [f"{key}: {draw(values)}" for key, values in (
+        ("sigma", NUMBER), ("p_value", NUMBER), ("sided", st.sampled_from(["one", "two"])),
+        ("systematics", st.sampled_from(["none", "quadrature", "marginalized"])),
+        ("error_at", st.sampled_from(["estimate", "threshold"])), ("required_sigma", NUMBER),
+        ("global_sigma", NUMBER), ("upcrossings", COUNT), ("upcrossing_sigma", NUMBER)) if draw(st.booleans())]
+    if sig:
+        lines.append("significance: {" + ", ".join(sig) + "}")
+    if draw(st.booleans()):
+        lines.append(f"interval: {{low: {draw(NUMBER)}, high: {draw(NUMBER)}, level: 0.95}}")
+    parts = draw(st.integers(0, 4))
+    if parts:
+        lines.append("parts:")
+        for i in range(parts):
+            lines.append(f"  - {{label: p{i}, estimate: {draw(NUMBER)}, stat_error: {draw(SMALL)}, "
+                         f"samples: {draw(COUNT)}}}")
+    if draw(st.booleans()):
+        method = draw(st.sampled_from(["equal", "samples", "inverse-variance", "random-effects"]))
+        body = [f"method: {method}"] + [f"{k}: {draw(v)}" for k, v in (("estimate", NUMBER), ("stat_error", SMALL))
+                                        if draw(st.booleans())]
+        lines.append("combination: {" + ", ".join(body) + "}")
+    if draw(st.booleans()):
+        body = [f"factor: {draw(NUMBER)}"] + ([f"factor_error: {draw(SMALL)}"] if draw(st.booleans()) else [])
+        body += [f"error_to: {draw(st.sampled_from(['syst', 'stat']))}"] if draw(st.booleans()) else []
+        lines.append("extrapolation: {" + ", ".join(body) + "}")
+    if draw(st.booleans()):
+        lines.append(f"error_budget: [{{name: gates, count: {draw(COUNT)}, error: {draw(SMALL)}, "
+                     f"error_sd: {draw(SMALL)}}}, {{name: readout, count: 20, error: 0.01}}]")
+    return "\n".join(lines) + "\n"
+
+
+# 300 derandomized draws (tests/conftest.py): every check's statements, flags among them.
+@settings(max_examples=300, deadline=datetime.timedelta(seconds=20),
+          suppress_health_check=[HealthCheck.too_slow, HealthCheck.function_scoped_fixture])
+@given(text=claims())
+def test_every_generated_finding_describes_itself(tmp_path, text):
+    path = tmp_path / "claim.yaml"
+    path.write_text(text, encoding="utf-8")
+    try:
+        claim = read_claim(path)
+    except ClaimcheckError:
+        return
+    report = run_checks(claim)
+    found = [p for f in report.findings for p in problems(f, claim)]
+    assert not found, text + "\n" + "\n".join(found)
+
+
+def _blocks(text: str, start: str, count: int) -> list[str]:
+    """The text of each numbered point, 1..count: from its marker to the next."""
+    out = []
+    for n in range(1, count + 1):
+        head = text.index(start.format(n=n))
+        ends = [text.find(start.format(n=n + 1), head)]
+        out.append(text[head:ends[0] if ends[0] != -1 else len(text)])
+    return out
+
+
+@pytest.mark.parametrize("path", EXAMPLE_FILES, ids=lambda p: p.name)
+def test_markdown_and_html_name_the_findings_field(path):
+    from html import escape
+
+    from checker.render.html import render_html
+    from checker.render.markdown import render_markdown
+
+    claim = read_claim(path)
+    report = run_checks(claim)
+    raised = [f for f in report.findings if f.status in ("fail", "warn")]
+    md_points = _blocks(render_markdown(report, claim), "\n{n}. **", len(raised))
+    html_points = _blocks(render_html(report, claim), 'id="point-{n}"', len(raised))
+    for f, md, page in zip(raised, md_points, html_points):
+        if f.field is None:
+            assert "(field `" not in md and 'class="cc-field"' not in page, f.message
+        else:
+            assert f"(field `{f.field}`)" in md, (f.field, md)
+            assert f'<span class="cc-field">({escape(f.field)})</span>' in page, f.field
