@@ -33,7 +33,7 @@ demo: $(STAMP)
 	@$(BIN)/claimcheck simulate --qubits 12 --circuits 8 --samples 500 --fidelity 0.6 --model circuit --seed 7 --out .demo-sim.csv
 	@$(BIN)/claimcheck raw .demo-sim.csv --claim claims_examples/simulated_raw_lattice.yaml --bootstrap 2000 --html .demo-raw.html; [ $$? -le 1 ]
 	@echo; echo "== planning: samples for 3 sigma at power 0.8"
-	@$(BIN)/claimcheck plan --metric linear-xeb --fidelity 2e-3 --threshold 1e-3 --sigma 3 --syst 3e-4
+	@$(BIN)/claimcheck plan --metric linear-xeb --estimate 2e-3 --threshold 1e-3 --required-sigma 3 --syst-error 3e-4
 
 test: $(STAMP)
 	$(BIN)/python -m pytest

@@ -1,5 +1,6 @@
 """Start-up cost of `claimcheck check` on one example claim, as a ratio against a bare
-`python -c "import numpy, scipy.stats"` measured in the same run (goal: at most 1.3x).
+`python -c "import numpy, scipy.stats"` measured in the same run (goal: at most 1.3x), and of
+`claimcheck --help` and `claimcheck schema` against the same baseline (goal: at most 0.15x).
 
 Also lists which heavy modules a plain check imports (none of statsmodels, pandas,
 matplotlib should appear).  Run: .venv/bin/python benchmarks/startup.py
@@ -35,6 +36,14 @@ def main() -> int:
         base.append(timed(baseline_cmd))
         check.append(timed(check_cmd))
     b, c = statistics.median(base), statistics.median(check)
+    light = {}
+    for label, extra in (("claimcheck --help", ["--help"]), ("claimcheck schema", ["schema"])):
+        runs = []
+        for _ in range(REPEATS):
+            runs.append(timed([python, "-m", "checker.cli", *extra]))
+            base.append(timed(baseline_cmd))
+        light[label] = statistics.median(runs)
+    b = statistics.median(base)
     probe = subprocess.run(
         [python, "-c", "import sys, io; from checker.cli import run; "
          f"run(['check', {str(CLAIM)!r}], io.StringIO(), io.StringIO()); "
@@ -45,6 +54,8 @@ def main() -> int:
     print(f"claimcheck check (one claim):   median {c * 1000:.0f} ms over {REPEATS} runs")
     print(f"ratio: {c / b:.2f}x (goal at most 1.3x)")
     print(f"heavy modules imported by a plain check: {heavy}")
+    for label, took in light.items():
+        print(f"{label}: median {took * 1000:.0f} ms, ratio {took / b:.2f}x the bare import (goal at most 0.15x)")
     return 0
 
 

@@ -15,6 +15,9 @@ from typing import Any, Mapping
 from .errors import ClaimcheckError, ClaimSchemaError, DataError, InputFileError
 from .report import Finding, Report
 
+# The one place the version is written: pyproject.toml reads it from here.
+__version__ = "0.1.0"
+
 
 def check(source: "str | Mapping[str, Any]", only=None) -> Report:
     """Check one claim given as a file path or a mapping of fields."""
@@ -55,5 +58,5 @@ def batch(table, jobs: int | None = None):
     return frame
 
 
-__all__ = ["check", "batch", "Report", "Finding", "ClaimcheckError", "ClaimSchemaError",
+__all__ = ["__version__", "check", "batch", "Report", "Finding", "ClaimcheckError", "ClaimSchemaError",
            "InputFileError", "DataError"]

@@ -27,6 +27,7 @@ COMMANDS = {
     "simulate": "simulate",
     "drift": "drift",
     "draft": "draft",
+    "template": "template",
 }
 
 DESCRIPTION = ("Re-derive the numbers of a benchmark claim from its own inputs and say, number by "
@@ -53,13 +54,24 @@ class _UsageError(Exception):
         self.parser = parser
 
 
-def build_parser() -> tuple[argparse.ArgumentParser, dict]:
+def build_parser(argv: list[str] | None = None) -> tuple[argparse.ArgumentParser, dict]:
+    """The parser, with every command's full options, or (given ``argv``) the
+    full options of only the command it names: the others are listed by name
+    and help line, so ``claimcheck --help`` and ``claimcheck schema`` import
+    neither the checks nor numpy (benchmarks/startup.py measures it)."""
+    from . import __version__
+
+    chosen = argv[0] if argv and argv[0] in COMMANDS else None
     parser = _Parser(prog="claimcheck", description=DESCRIPTION)
+    parser.add_argument("--version", action="version", version=f"claimcheck {__version__}")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
     modules = {}
     for name, module_name in COMMANDS.items():
         module = importlib.import_module(f".commands.{module_name}", __package__)
-        module.add_parser(sub)
+        if argv is None or name == chosen:
+            module.add_parser(sub)
+        else:
+            sub.add_parser(name, help=module.HELP, description=module.HELP)
         modules[name] = module
     return parser, modules
 
@@ -70,7 +82,7 @@ def run(argv=None, stdout=None, stderr=None) -> int:
     stdout = SafeStream(stdout if stdout is not None else sys.stdout)
     stderr = SafeStream(stderr if stderr is not None else sys.stderr, escape=False)
     argv = list(sys.argv[1:] if argv is None else argv)
-    parser, modules = build_parser()
+    parser, modules = build_parser(argv)
     try:
         # --help and --version print through sys.stdout; send them where run() was told.
         with contextlib.redirect_stdout(stdout):

@@ -136,6 +136,14 @@ def convention_words(reproduced_by: Mapping[str, Any] | None) -> str | None:
             words.append(ERROR_AT_PHRASES.get(value, f"with the error taken at the {_one_line(value)}"))
         elif key in ("method", "interval_method", "combination"):
             words.append(METHOD_PHRASES.get(value, _one_line(value)))
+        elif key == "denominator":
+            words.append(f"with N = {num(value)}")
+        elif key == "margin":
+            words.append(f"taking {_one_line(value)} as N")
+        elif key == "numerator":
+            words.append(f"counting {_one_line(value)}")
+        elif key == "rate":
+            words.append(f"as the {_one_line(value).replace('_', ' ')}")
         elif key in COUNT_KEYS:
             words.append(f"with about {num(value)} {key}")
         else:

@@ -124,7 +124,7 @@ def one_error_line(status, out, err, starts=None):
 @pytest.mark.parametrize("text, words", [
     ("title: t\nmetric: mean\nestimate: 1\nsamples: -5\n", "samples (line 4): samples must be a whole number"),
     ("title: t\nmetric: mean\nestimate: 1\nsamples: 2.5\n", "samples (line 4)"),
-    ("title: t\nmetric: mean\n", "the required field 'estimate' is missing"),
+    ("title: t\nmetric: mean\n", "estimate (line 1): estimate is missing"),
     ("title: t\nmetric: mean\nestimate: [1\n", "is not valid YAML"),
     ("title: t\nmetric: mean\nestimate: 017\n", "octal"),
     ("title: t\nmetric: mean\nestimate: 1\nestimate: 2\n", "twice"),
@@ -204,3 +204,36 @@ def test_any_claim_through_the_command_line(write_claim, extra, metric, json_out
         assert err == ""
         if json_out:
             assert strict_json(out)["verdict"] == ("inconsistent" if status == 1 else strict_json(out)["verdict"])
+
+
+def test_version_and_python_dash_m():
+    import subprocess
+    import sys
+
+    import checker
+
+    status, out, err = cli("--version")
+    assert (status, out, err) == (0, f"claimcheck {checker.__version__}\n", "")
+    done = subprocess.run([sys.executable, "-m", "checker", "--version"], capture_output=True, text=True,
+                          timeout=60, cwd=ROOT)
+    assert (done.returncode, done.stdout) == (0, f"claimcheck {checker.__version__}\n")
+
+
+def test_check_takes_several_files_and_standard_input(write_claim, monkeypatch):
+    clean, flawed = write_claim(CLEAN), write_claim(FLAWED)
+    status, out, err = cli("check", clean, flawed, "--verdict-only")
+    assert (status, err) == (1, "")
+    first, second = out.splitlines()
+    assert first.startswith(f"{clean}: consistent; ") and second.startswith(f"{flawed}: inconsistent (")
+    status, out, _ = cli("check", clean, flawed, "--json")
+    assert [r["verdict"] for r in strict_json(out)] == ["consistent", "inconsistent"]
+    # The worst status: an unusable file (2) beats a flag (1); the others are still checked.
+    status, out, err = cli("check", flawed, write_claim("title: t\n"), clean, "--verdict-only")
+    assert status == 2 and len(out.splitlines()) == 2 and err.count("\n") == 1
+    # "-" reads one claim from standard input, YAML or JSON.
+    for text in (CLEAN, json.dumps({"title": "t", "metric": "mean", "estimate": 1})):
+        monkeypatch.setattr("sys.stdin", io.TextIOWrapper(io.BytesIO(text.encode())))
+        status, out, err = cli("check", "-")
+        assert (status, err) == (0, "") and "from <stdin>" in out
+    line = one_error_line(*cli("check", clean, flawed, "--html", "out.html"), starts="--html: ")
+    assert "use claimcheck batch" in line

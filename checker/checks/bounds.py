@@ -29,7 +29,7 @@ def _estimate_findings(claim: Claim, value: Reported, error: Reported | None,
         side, limit = ("above", model.highest) if value.low > model.highest else ("below", model.lowest)
         if model.hard_bounds or (side == "below" and model.hard_lowest):
             yield Finding("fail", f"{what} {value.text} lies {side} {num(limit)}, which "
-                          f"{model.noun} cannot do.",
+                          f"{model.noun} cannot do{_percent_hint(value, model) or '.'}",
                           details={**details, "field": value.path, "limit": limit}, **_on(value, "estimate_range"))
             return
         excess = (value.low - model.highest) if side == "above" else (model.lowest - value.high)
@@ -52,6 +52,15 @@ def _estimate_findings(claim: Claim, value: Reported, error: Reported | None,
                           details={**details, "field": value.path, "limit": limit}, **_on(value, "estimate_range"))
 
 
+def _percent_hint(value: Reported, model) -> str:
+    """The end of a sentence for a value from 2 to 100 where at most 1 is
+    possible: most likely a percentage written without its sign (a 1.02 is
+    more likely a value just above 1)."""
+    if model.highest == 1 and 2 <= value.value <= 100 and not value.text.rstrip().endswith("%"):
+        return f"; {model.noun} is at most 1: did you mean {value.text.strip()}%?"
+    return ""
+
+
 def _positive(rep: Reported | None, what: str, allow_zero: bool = False, details=None) -> Iterator[Finding]:
     if rep is None:
         return
@@ -72,7 +81,8 @@ def check(claim: Claim) -> Iterator[Finding]:
         checked += 1
         found.extend(gen)
 
-    collect(_estimate_findings(claim, claim.estimate, claim.stat_error, "The estimate", {}))
+    if claim.estimate is not None:
+        collect(_estimate_findings(claim, claim.estimate, claim.stat_error, "The estimate", {}))
     collect(_positive(claim.stat_error, "The statistical error"))
     collect(_positive(claim.syst_error, "The systematic error", allow_zero=True))
     if claim.sd is not None:
@@ -82,7 +92,8 @@ def check(claim: Claim) -> Iterator[Finding]:
         checked += 1
         if not model.lowest <= t.value <= model.highest:
             found.append(Finding("fail", f"The threshold {t.text} lies outside [{num(model.lowest)}, "
-                                 f"{num(model.highest)}], the range of {model.noun}.",
+                                 f"{num(model.highest)}], the range of {model.noun}"
+                                 f"{_percent_hint(t, model) or '.'}",
                                  details={"field": t.path}, **_on(t, "threshold_range")))
     p = claim.significance.p_value
     if p is not None:
@@ -103,7 +114,7 @@ def check(claim: Claim) -> Iterator[Finding]:
                                  "its low end is above its high end.", details={"field": "interval"},
                                  field="interval", statement="interval_order",
                                  printed=Shown(f"[{iv.low.text}, {iv.high.text}]", iv.low.low, iv.high.high)))
-        elif not iv.low.low <= claim.estimate.value <= iv.high.high:
+        elif claim.estimate is not None and not iv.low.low <= claim.estimate.value <= iv.high.high:
             found.append(Finding("fail", f"The estimate {claim.estimate.text} lies outside its own "
                                  f"interval [{iv.low.text}, {iv.high.text}].", details={"field": "interval"},
                                  **_on(claim.estimate, "outside_interval")))

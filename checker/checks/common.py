@@ -17,11 +17,13 @@ def metric_of(claim: Claim) -> MetricModel:
     return METRICS[claim.metric]
 
 
-def model_inputs(claim: Claim, sd: float | None = None) -> ModelInputs:
+def model_inputs(claim: Claim, sd: float | None = None, circuits: float | None = None) -> ModelInputs:
+    """The metric model's inputs; ``circuits`` (K of the error sqrt(v/N + B (1/K - 1/N)))
+    only where the caller says which count of circuits the samples come from."""
     if sd is None and claim.sd is not None:
         sd = claim.sd.value
-    return ModelInputs(dimension=dimension_of(claim.qubit_count) if claim.metric == "linear-xeb" else None,
-                       sd=sd)
+    xeb = claim.metric in ("linear-xeb", "log-xeb")
+    return ModelInputs(dimension=dimension_of(claim.qubit_count) if xeb else None, sd=sd, circuits=circuits)
 
 
 def count_for_error(claim: Claim) -> Reported | None:
@@ -31,6 +33,20 @@ def count_for_error(claim: Claim) -> Reported | None:
     if model.count_field == "circuits" and claim.circuits is not None:
         return claim.circuits
     return claim.samples
+
+
+# The agreement rule, one-sided (README, "Printed precision"): a printed number and a recomputed
+# bound disagree when the gap between them is more than ``tolerance`` times the printed value.
+def below(printed: Reported, bound: float, tolerance: float) -> bool:
+    """The whole printed interval lies below ``bound``, by more than
+    ``tolerance`` x the printed value."""
+    return bound - printed.high > tolerance * abs(printed.value)
+
+
+def above(printed: Reported, bound: float, tolerance: float) -> bool:
+    """The whole printed interval lies above ``bound``, by more than
+    ``tolerance`` x the printed value."""
+    return printed.low - bound > tolerance * abs(printed.value)
 
 
 def log_bounds(rep: Reported) -> tuple[float, float]:

@@ -17,6 +17,7 @@ from typing import Iterator
 
 from ..claim.model import Claim
 from ..report import Finding, Shown, Span
+from .no_estimate import no_estimate
 from ..stats.budget import predict
 from ..stats.precision import gap
 from ..wording import like, num
@@ -31,6 +32,9 @@ def check(claim: Claim) -> Iterator[Finding]:
     if not items:
         yield Finding("skip", "No error budget is given.", details={"missing": ["error_budget"]},
                       statement="needs_inputs")
+        return
+    if claim.estimate is None:
+        yield no_estimate(claim, "the measured value against the budget")
         return
     if any(not 0.0 <= it.error.value <= 1.0 for it in items):
         yield Finding("skip", "An error rate lies outside [0, 1] (see bounds), so the budget predicts "

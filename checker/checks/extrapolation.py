@@ -24,6 +24,7 @@ from typing import Iterator
 
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
+from .no_estimate import no_estimate
 from ..stats.precision import agrees, over_box
 from .parts_summary import METHOD_WORDS, parts_summary, value_text
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
@@ -69,6 +70,9 @@ def check(claim: Claim) -> Iterator[Finding]:
     if ex is None:
         yield Finding("skip", "No extrapolation factor is given.", details={"missing": ["extrapolation"]},
                       statement="needs_inputs")
+        return
+    if claim.estimate is None:
+        yield no_estimate(claim, "the extrapolated headline")
         return
     got = _combined(claim)
     if got is None:

@@ -21,6 +21,7 @@ from typing import Iterator
 
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown
+from .no_estimate import no_estimate
 from ..stats.granularity import granularity
 from ..wording import like
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
@@ -111,6 +112,8 @@ def check(claim: Claim) -> Iterator[Finding]:
         yield Finding("skip", "Headline: a weighted combination of parts is not itself a count over whole "
                       "items (only pooling by samples is), so only parts are tested.", details={},
                       statement="headline_not_count")
+    elif claim.estimate is None:
+        yield no_estimate(claim, "the headline's whole count")
     else:
         yield _one(claim, claim.estimate, claim.samples, "Headline", {}, proportion, items)
     for part in claim.parts:

@@ -28,6 +28,7 @@ from typing import Iterator
 
 from ..claim.model import Claim
 from ..report import Finding, Shown, Span
+from .no_estimate import no_estimate
 from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval, proportion_intervals
 from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.granularity import granularity
@@ -245,6 +246,9 @@ def check(claim: Claim) -> Iterator[Finding]:
     if iv is None:
         yield Finding("skip", "No interval is printed.", details={"missing": ["interval"]},
                       statement="needs_inputs")
+        return
+    if claim.estimate is None:
+        yield no_estimate(claim, "the interval's sides")
         return
     if iv.low.value > iv.high.value:
         yield Finding("skip", "The interval's ends are reversed (bounds reports it).", details={},

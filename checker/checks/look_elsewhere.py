@@ -24,7 +24,7 @@ from ..stats.precision import agrees, over_box
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
 from ..vocabulary import CORRECTION_NAMES
 from ..wording import num, p_range_text, p_text, span_text
-from .common import is_probability, log_bounds
+from .common import above, is_probability, log_bounds
 from .significance import recompute, stated_convention
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
@@ -161,7 +161,7 @@ def check(claim: Claim) -> Iterator[Finding]:
         need = sig.required_sigma.value
         about = {"field": sig.required_sigma.path, "statement": "required_sigma",
                  "printed": Shown.of(sig.required_sigma), "recomputed_range": Span(*gsigma), "tolerance": tol}
-        if gsigma[1] * (1 + tol) < need:
+        if above(sig.required_sigma, gsigma[1], tol):
             yield Finding("fail", f"After the look-elsewhere correction the claim reaches "
                           f"{span_text(gsigma)} sigma, below the required {sig.required_sigma.text}: {summary}.",
                           reported=need, recomputed=mid, details={**details, "required": need}, **about)

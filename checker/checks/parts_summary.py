@@ -3,8 +3,10 @@
 
 Each part's error is its printed ``stat_error`` or, when only ``samples`` (or
 ``circuits`` for heavy output) are printed, the one the metric model gives.
-Every method is evaluated over the printed precision of all parts' inputs by
-first-order worst-case propagation (``stats.propagation``), and the result is
+Every method's value is computed at the printed values, and its range over
+the box of the parts' printed intervals by the range engine
+(``stats.combination_ranges``: closed forms where they exist, a bounded search
+where not, each range computed only when a check asks for it).  The result is
 cached per claim, since three checks read it.
 """
 
@@ -12,14 +14,16 @@ from __future__ import annotations
 
 import functools
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from types import MappingProxyType
 from typing import Mapping
 
+import numpy as np
+
 from ..claim.model import Claim, Reported
+from ..stats.combination_ranges import CombinationRanges, PartsBox
 from ..stats.combine import METHODS, combine, spread_error
 from ..stats.heterogeneity import Heterogeneity, cochran_q, heterogeneity, log_p_chi2, scale_factor
-from ..stats.propagation import ranges_one_at_a_time
 from ..vocabulary import COMBINATION_MEANS as METHOD_WORDS  # noqa: F401  (the checks read it here)
 from ..wording import like
 from .common import metric_of, model_inputs
@@ -36,19 +40,36 @@ VARIANT_WORDS = {
 }
 
 
+def _range(r) -> Range | None:
+    if r is None or not all(math.isfinite(v) for v in r):
+        return None
+    return (float(r[0]), float(r[1]))
+
+
 @dataclass(frozen=True)
 class MethodResult:
-    """One combination method over the printed precision of the parts."""
+    """One combination method: its values at the printed parts, and their
+    ranges over the printed precision of the parts (computed on first use)."""
 
     method: str
     estimate: float
-    estimate_range: Range
     stat_error: float | None
-    stat_error_range: Range | None
     scaled_error: float | None  # stat_error x the PDG scale factor S
-    scaled_error_range: Range | None
     weights: tuple[float, ...]
     tau2: float
+    engine: CombinationRanges = field(repr=False, compare=False)
+
+    @property
+    def estimate_range(self) -> Range | None:
+        return _range(self.engine.range(self.method, "estimate"))
+
+    @property
+    def stat_error_range(self) -> Range | None:
+        return None if self.stat_error is None else _range(self.engine.range(self.method, "stat_error"))
+
+    @property
+    def scaled_error_range(self) -> Range | None:
+        return None if self.scaled_error is None else _range(self.engine.range(self.method, "scaled_error"))
 
 
 @dataclass(frozen=True)
@@ -70,84 +91,50 @@ def _error_count(claim: Claim, part) -> Reported | None:
     return part.samples
 
 
-def _layout(claim: Claim):
-    """The flat input vector: estimates, then per-part error inputs (the
-    printed error or the count the model error comes from), then samples."""
+def _box(claim: Claim) -> tuple[PartsBox, tuple[str, ...] | None]:
+    """The box of the parts' inputs.  A model error gets the interval of the
+    model's error over its estimate's interval and its count's (the variance's
+    exact extremes there, ``MetricModel.variance_range``)."""
     parts = claim.parts
     model = metric_of(claim)
+    inputs = model_inputs(claim)
     model_ok = not [f for f in model.needs() if getattr(claim, f) is None]
-    error_inputs: list[tuple[str, Reported] | None] = []
+    x = np.array([p.estimate.value for p in parts])
+    x_low = np.array([p.estimate.low for p in parts])
+    x_high = np.array([p.estimate.high for p in parts])
+    errors = []
+    kinds = []
     for p in parts:
         if p.stat_error is not None and p.stat_error.value > 0:
-            error_inputs.append(("printed", p.stat_error))
-        elif model_ok and _error_count(claim, p) is not None:
-            error_inputs.append(("model", _error_count(claim, p)))
-        else:
-            error_inputs.append(None)
-    have_errors = all(e is not None for e in error_inputs)
-    have_samples = all(p.samples is not None for p in parts)
-    reps: list[Reported] = [p.estimate for p in parts]
-    if have_errors:
-        reps += [e[1] for e in error_inputs]
-    if have_samples:
-        reps += [p.samples for p in parts]
-    kinds = tuple(e[0] for e in error_inputs) if have_errors else None
-    return reps, kinds, have_samples
-
-
-def _unpack(claim: Claim, vec, kinds, have_samples):
-    k = len(claim.parts)
-    estimates = vec[:k]
-    errors = None
-    pos = k
-    if kinds is not None:
-        model = metric_of(claim)
-        inputs = model_inputs(claim)
-        errors = []
-        for kind, value, est in zip(kinds, vec[pos:pos + k], estimates):
-            if kind == "printed":
-                errors.append(value)
-            else:
-                errors.append(model.standard_error(est, value, inputs))
-        pos += k
-        if any(e is None or not (e > 0 and math.isfinite(e)) for e in errors):
+            e = p.stat_error
+            errors.append((e.value, e.low, e.high))
+            kinds.append("printed")
+            continue
+        count = _error_count(claim, p) if model_ok else None
+        mid = model.standard_error(p.estimate.value, count.value, inputs) if count is not None else None
+        if mid is None or not (mid > 0 and math.isfinite(mid)) or not count.low > 0:
             errors = None
-    samples = vec[pos:pos + k] if have_samples else None
-    return estimates, errors, samples
-
-
-def _evaluate(claim: Claim, kinds, have_samples, vec):
-    """Every output at one point of the box: for each method its estimate, error
-    and scaled error, then the variants, then Q."""
-    estimates, errors, samples = _unpack(claim, vec, kinds, have_samples)
-    k = len(estimates)
-    s = None
-    q = None
-    if errors is not None and k >= 2:
-        q = cochran_q(estimates, errors)
-        s = scale_factor(q, k - 1)
-    out: list[float | None] = []
-    for method in METHODS:
-        try:
-            c = combine(method, estimates, errors, samples)
-        except ValueError:
-            c = None
-        if c is None:
-            out += [None, None, None]
-        else:
-            out += [c.estimate, c.stat_error,
-                    None if (c.stat_error is None or s is None) else c.stat_error * s]
-    out.append(spread_error(estimates) if k >= 2 else None)
-    out.append(sum(errors) / k if errors is not None else None)
-    out.append(math.sqrt(sum(e * e for e in errors)) if errors is not None else None)
-    out.append(q)
-    return out
-
-
-def _range(r) -> Range | None:
-    if r is None or not all(math.isfinite(v) for v in r):
-        return None
-    return (float(r[0]), float(r[1]))
+            break
+        v_low, v_high = model.variance_range(p.estimate.low, p.estimate.high, inputs)
+        low = math.sqrt(max(v_low, 0.0) / count.high) if math.isfinite(v_low) else 0.0
+        high = math.sqrt(v_high / count.low) if math.isfinite(v_high) else math.inf
+        # A variance that vanishes at the interval's end (a proportion printed as 1.00): the
+        # weight is unbounded there, which a part error of 1e-12 of its value stands for.
+        errors.append((mid, min(max(low, mid * 1e-12), mid), max(high, mid)))
+        kinds.append("model")
+    s = s_low = s_high = None
+    if errors is not None:
+        s, s_low, s_high = (np.array(col) for col in zip(*errors))
+        if not (np.all(np.isfinite(s_high)) and np.all(s_low > 0)):
+            s = s_low = s_high = None
+    n = n_low = n_high = None
+    if all(p.samples is not None for p in parts) and all(p.samples.value > 0 and p.samples.low > 0
+                                                         for p in parts):
+        n = np.array([p.samples.value for p in parts])
+        n_low = np.array([p.samples.low for p in parts])
+        n_high = np.array([p.samples.high for p in parts])
+    box = PartsBox(x, x_low, x_high, s, s_low, s_high, n, n_low, n_high)
+    return box, (tuple(kinds) if s is not None else None)
 
 
 @functools.lru_cache(maxsize=32)
@@ -156,43 +143,40 @@ def parts_summary(claim: Claim) -> PartsSummary | None:
     k = len(claim.parts)
     if k < 2:
         return None
-    reps, kinds, have_samples = _layout(claim)
-    centre = [r.value for r in reps]
-    bounds = [r.bounds for r in reps]
-    at_centre = _evaluate(claim, kinds, have_samples, centre)
-    ranges = ranges_one_at_a_time(lambda v: _evaluate(claim, kinds, have_samples, v), centre, bounds)
+    box, kinds = _box(claim)
+    engine = CombinationRanges(box)
+    estimates = box.x.tolist()
+    errors = box.s.tolist() if box.s is not None else None
+    samples = box.n.tolist() if box.n is not None else None
+    s_factor = scale_factor(cochran_q(estimates, errors), k - 1) if errors is not None else None
     methods = {}
-    for i, method in enumerate(METHODS):
-        est, err, scaled = at_centre[3 * i:3 * i + 3]
-        if est is None:
-            continue
+    for method in METHODS:
         try:
-            weights_of = combine(method, *_unpack(claim, centre, kinds, have_samples))
+            c = combine(method, estimates, errors, samples)
         except ValueError:
+            c = None
+        if c is None:
             continue
-        methods[method] = MethodResult(
-            method, est, _range(ranges[3 * i]), err, _range(ranges[3 * i + 1]) if err is not None else None,
-            scaled, _range(ranges[3 * i + 2]) if scaled is not None else None,
-            weights_of.weights, weights_of.tau2)
-    base = 3 * len(METHODS)
+        scaled = None if (c.stat_error is None or s_factor is None) else c.stat_error * s_factor
+        methods[method] = MethodResult(method, c.estimate, c.stat_error, scaled, c.weights, c.tau2, engine)
     variants = {}
-    for j, name in enumerate(("spread", "average", "quadrature")):
-        if at_centre[base + j] is not None and _range(ranges[base + j]) is not None:
-            variants[name] = (at_centre[base + j], _range(ranges[base + j]))
+    spread = _range(engine.spread())
+    if spread is not None:
+        variants["spread"] = (spread_error(estimates), spread)
+    if errors is not None:
+        variants["average"] = (sum(errors) / k, _range(engine.average()))
+        variants["quadrature"] = (math.sqrt(sum(e * e for e in errors)), _range(engine.quadrature()))
+        variants = {name: v for name, v in variants.items() if v[1] is not None}
     het = None
     log_p_high = None
     q_range = None
-    if kinds is not None:
-        estimates, errors, _ = _unpack(claim, centre, kinds, have_samples)
-        if errors is not None:
-            het = heterogeneity(estimates, errors)
-            q_range = _range(ranges[base + 3])
-            if q_range is not None:
-                log_p_high = log_p_chi2(q_range[0], k - 1)
-    if kinds is None:
-        source = None
-    else:
-        source = " and ".join(sorted(set(kinds), reverse=True))
+    if errors is not None:
+        het = heterogeneity(estimates, errors)
+        q = engine.q()
+        q_range = (float(q[0]), float(q[1])) if q is not None and math.isfinite(q[0]) else None
+        if q_range is not None:
+            log_p_high = log_p_chi2(q_range[0], k - 1)
+    source = None if kinds is None else " and ".join(sorted(set(kinds), reverse=True))
     return PartsSummary(k, source, MappingProxyType(methods), MappingProxyType(variants), het,
                         log_p_high, q_range)
 

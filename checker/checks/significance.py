@@ -25,13 +25,14 @@ from typing import Iterator
 
 from ..claim.model import Claim
 from ..report import Finding, Shown, Span
+from ..stats.binomial import binomial_variance, heavy_output_sigma
 from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
 from ..vocabulary import convention_text
 from ..wording import num, p_range_text, span_text
-from .common import is_probability, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
+from .common import above, is_probability, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 LN10 = math.log(10.0)
@@ -87,7 +88,7 @@ def _conventions(claim: Claim) -> list[dict]:
 
 def recompute(claim: Claim, convention: dict) -> Recomputed | None:
     """z and log p over the box of the printed inputs, under one convention."""
-    if claim.threshold is None:
+    if claim.threshold is None or claim.estimate is None:
         return None
     t = claim.threshold.value
     sided, systematics, error_at = (convention[k] for k in KEYS)
@@ -101,6 +102,8 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         stat = over_box(lambda count: model.standard_error(t, count, inputs), [n.bounds])
     else:
         stat, _ = statistical_error(claim)
+        if stat is None and per_circuit(claim):
+            return _recompute_per_circuit(claim, convention, syst)
         if stat is None:
             return None
     if not (math.isfinite(stat[0]) and stat[0] > 0):
@@ -135,8 +138,8 @@ def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
     the numbers a survey adjusts across its claims (Holm, Benjamini-Hochberg).
     A marginalized systematic gives the quadrature value exactly for a Gaussian
     null (Cousins and Highland 1992), so it is computed as quadrature here.
-    None when the claim lacks a threshold or a positive error."""
-    if claim.threshold is None:
+    None when the claim lacks an estimate, a threshold or a positive error."""
+    if claim.threshold is None or claim.estimate is None:
         return None
     t = claim.threshold.value
     if convention["error_at"] == "threshold":
@@ -150,6 +153,8 @@ def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
     elif claim.interval is not None:
         iv = claim.interval
         stat = sigma_from_interval(iv.low.value, iv.high.value, iv.level.value)
+    elif per_circuit(claim):
+        stat = math.sqrt(binomial_variance(claim.estimate.value) / claim.circuits.value)
     else:
         return None
     if stat is None or not (math.isfinite(stat) and stat > 0):
@@ -160,6 +165,75 @@ def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
         return None
     sided = convention["sided"]
     return (abs(z) if sided == "two" else z), log_p_from_sigma(abs(z) if sided == "two" else z, sided)
+
+
+def per_circuit(claim: Claim) -> bool:
+    """Heavy output with circuits: the criterion's error over circuits,
+    sqrt(h (1 - h) / circuits) at the estimate, is defined (Cross et al. 2019)."""
+    return claim.metric == "heavy-output" and claim.circuits is not None and claim.circuits.low > 0
+
+
+def _recompute_per_circuit(claim: Claim, convention: dict, syst: tuple[float, float]) -> Recomputed | None:
+    """z and log p with the heavy-output criterion's error over circuits, taken at the estimate
+    (exact at the vertices of estimate, circuits and systematic: ``heavy_output_sigma``)."""
+    if convention["systematics"] == "marginalized":
+        return None
+    t = claim.threshold.value
+    sided = convention["sided"]
+    sigma = over_box(lambda e, k, ss: heavy_output_sigma(e, t, k, ss),
+                     [claim.estimate.bounds, claim.circuits.bounds, syst])
+    if not all(math.isfinite(v) for v in sigma):
+        return None
+    log_p = tuple(sorted(log_p_from_sigma(z, sided) for z in sigma))
+    if sided == "two":
+        sigma = tuple(sorted(abs(x) for x in sigma)) if sigma[0] * sigma[1] > 0 else (0.0, max(map(abs, sigma)))
+        log_p = tuple(sorted(log_p_from_sigma(z, sided) for z in sigma))
+    return Recomputed(convention, sigma, log_p)
+
+
+def _criterion(claim: Claim, shown: Recomputed, tol: float) -> Iterator[Finding]:
+    """With a printed error beside circuits, say under which convention a heavy-output claim
+    reaches its required level: the printed error (shot noise, when it is the binomial error of
+    all shots) or the criterion's error over circuits, the convention the 2/3-at-two-sigma
+    criterion is defined with (Cross et al. 2019).  Reaching it only under the first is flagged."""
+    sig = claim.significance
+    if not (per_circuit(claim) and sig.required_sigma is not None and statistical_error(claim)[0] is not None):
+        return
+    crit = _recompute_per_circuit(claim, {"sided": "one", "systematics": "none", "error_at": "estimate"},
+                                  (0.0, 0.0))
+    if crit is None:
+        return
+    need = sig.required_sigma
+    h = claim.estimate.value
+    per = math.sqrt(binomial_variance(h) / claim.circuits.value)
+    printed_ok = not above(need, shown.sigma[1], tol)
+    crit_ok = not above(need, crit.sigma[1], tol)
+    facts = {"quantity": "criterion", "required": need.value, "sigma_printed_low": shown.sigma[0],
+             "sigma_printed_high": shown.sigma[1], "sigma_circuits_low": crit.sigma[0],
+             "sigma_circuits_high": crit.sigma[1], "per_circuit_error": per, "tolerance": tol}
+    about = {"field": need.path, "statement": "criterion", "printed": Shown.of(need),
+             "recomputed_range": Span(*crit.sigma), "tolerance": tol}
+    words = (f"the criterion's error over circuits, sqrt(h(1 - h)/{claim.circuits.text}) = {num(per, 3)}, "
+             f"gives {span_text(crit.sigma)} sigma")
+    printed = f"the printed stat_error {claim.stat_error.text}" if claim.stat_error else "the printed interval"
+    if printed_ok and not crit_ok:
+        yield Finding("fail", f"The required {need.text} sigma is reached only with {printed} "
+                      f"({span_text(shown.sigma)} sigma), an error below the criterion's (shot noise, say); {words}, "
+                      "short of it.",
+                      reported=need.value, recomputed=(crit.sigma[0] + crit.sigma[1]) / 2,
+                      reproduced_by={"error": "shot noise"}, details=facts, **about)
+    elif printed_ok:
+        yield Finding("pass", f"The required {need.text} sigma is reached with {printed} and under the "
+                      f"criterion's convention too: {words}.", reported=need.value,
+                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts, **about)
+    elif crit_ok:
+        yield Finding("pass", f"With {printed} the required {need.text} sigma is not reached, but {words}, "
+                      "which reaches it.", reported=need.value, recomputed=(crit.sigma[0] + crit.sigma[1]) / 2,
+                      details=facts, **about)
+    else:
+        yield Finding("fail", f"The required {need.text} sigma is reached under neither convention: "
+                      f"{printed} gives {span_text(shown.sigma)} sigma and {words}.", reported=need.value,
+                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts, **about)
 
 
 class _Lazy:
@@ -248,9 +322,11 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     mine = next((r for r in results if r.convention == stated), None)
     if mine is None:
         missing = []
+        if claim.estimate is None:
+            missing.append("estimate")
         if claim.threshold is None:
             missing.append("threshold")
-        if statistical_error(claim)[0] is None and stated["error_at"] == "estimate":
+        if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and not per_circuit(claim):
             missing.append("stat_error (or interval)")
         if stated["error_at"] == "threshold" and count_for_error(claim) is None:
             missing.append(metric_of(claim).count_field)
@@ -260,6 +336,8 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     conv_words = convention_text(stated)
     # Whether the systematic error widened the null (the HTML picture draws it so).
     syst_in = stated["systematics"] != "none" and claim.syst_error is not None and claim.syst_error.value > 0
+    if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and per_circuit(claim):
+        conv_words += ", the criterion's error over circuits sqrt(h(1 - h)/circuits)"
     at_centre = central(claim, stated)
     details = {"convention": stated, "stated": sorted(sig.stated), "syst_in_error": syst_in,
                # z and log10 p at the printed central values, which a survey adjusts across its claims
@@ -298,7 +376,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         about = {"field": sig.required_sigma.path, "statement": "required_sigma",
                  "printed": Shown.of(sig.required_sigma), "recomputed_range": Span(*mine.sigma),
                  "tolerance": tol}
-        if mine.sigma[1] * (1 + tol) < need:
+        if above(sig.required_sigma, mine.sigma[1], tol):
             yield Finding("fail", f"Recomputed {span_text(mine.sigma)} sigma falls short of the required "
                           f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
         elif mine.sigma[0] < need:
@@ -308,6 +386,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         else:
             yield Finding("pass", f"Recomputed {span_text(mine.sigma)} sigma clears the required "
                           f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
+        yield from _criterion(claim, mine, tol)
 
 
 def check(claim: Claim) -> Iterator[Finding]:
@@ -342,6 +421,11 @@ SPEC = CheckSpec(
         "required_sigma": Statement(
             question=("On what basis does the claim reach the required significance, given that the "
                       "printed estimate, threshold and errors give less?")),
+        "criterion": Statement(
+            question=("Under which error does the claim reach {what}? The heavy-output criterion takes the "
+                      "error over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached."),
+            if_reproduced=("Is {what} reached only {reproduced}? The heavy-output criterion takes the error "
+                           "over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached.")),
         "inputs_only": ABOUT_THE_CLAIM,
         "needs_inputs": ABOUT_THE_CLAIM,
     },

@@ -4,7 +4,9 @@ the float together with the interval its printed digits stand for."""
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass, replace
+from fractions import Fraction
 from typing import Any
 
 from ..errors import ClaimSchemaError
@@ -22,9 +24,14 @@ EXACT_FIELDS = {
     ("threshold",), ("tolerance",), ("trials",), ("interval", "level"),
     ("significance", "required_sigma"), ("significance", "upcrossing_sigma"),
 }
+# An exact definition may be written as a fraction ("threshold: 2/3"); the schema
+# allows it only for these fields.
+FRACTION = re.compile(r"[+-]?(0|[1-9][0-9]*)/[1-9][0-9]*")
 COUNT_FIELDS = {"qubits", "samples", "circuits", "trials", "items", "count"}
+# Whole numbers that may be zero: events seen, discordant items.
+ZERO_COUNT_FIELDS = {"observed", "discordant"}
 # Fields where a percentage means nothing: counts, and significances in sigma.
-NO_PERCENT_FIELDS = COUNT_FIELDS | {"sigma", "required_sigma", "global_sigma", "upcrossings", "upcrossing_sigma"}
+NO_PERCENT_FIELDS = COUNT_FIELDS | ZERO_COUNT_FIELDS | {"background", "background_error", "sigma", "required_sigma", "global_sigma", "upcrossings", "upcrossing_sigma"}
 
 
 @dataclass(frozen=True)
@@ -145,13 +152,45 @@ class PrintedRate:
 
 
 @dataclass(frozen=True)
+class Baseline:
+    """The result a claim says it beats."""
+
+    estimate: Reported
+    label: str = "baseline"
+    stat_error: Reported | None = None
+    samples: Reported | None = None
+
+
+@dataclass(frozen=True)
+class Comparison:
+    """The difference from the baseline as printed, and how it was tested."""
+
+    paired: bool = False
+    discordant: tuple[Reported, Reported] | None = None  # (only ours right, only the baseline right)
+    difference: Reported | None = None
+    difference_error: Reported | None = None
+    sigma: Reported | None = None
+    p_value: Reported | None = None
+    sided: str = "one"
+    test: str | None = None  # None: every paired test is tried
+    stated: frozenset = frozenset()  # which of paired/sided/test were written
+
+
+# The estimate may be left out only by these kinds of claim (README, "Claim format").
+ESTIMATE_OPTIONAL = ("a counting experiment (metric counts), a claim that prints only its significances "
+                     "(a local sigma or p and a global sigma), a comparison that prints its difference, "
+                     "or a table of rates (counts_table)")
+
+
+@dataclass(frozen=True)
 class Claim:
-    """One benchmark claim, as printed."""
+    """One benchmark claim, as printed.  ``estimate`` is None only for the kinds
+    of :data:`ESTIMATE_OPTIONAL`; every check reads it through a guard."""
 
     file: str
     title: str
     metric: str
-    estimate: Reported
+    estimate: Reported | None = None
     source: str | None = None
     qubits: Reported | None = None
     stat_error: Reported | None = None
@@ -172,6 +211,11 @@ class Claim:
     tolerance: float = DEFAULT_TOLERANCE
     counts_table: CountsTable | None = None
     rates: tuple[PrintedRate, ...] = ()
+    observed: Reported | None = None
+    background: Reported | None = None
+    background_error: Reported | None = None
+    baseline: Baseline | None = None
+    comparison: Comparison | None = None
 
     @property
     def qubit_count(self) -> int | None:
@@ -186,32 +230,53 @@ class _Builder:
         raise ClaimSchemaError(self.doc.file, problem, allowed, path=dotted(path),
                                line=self.doc.line_of(path))
 
-    def number(self, container: dict, path: tuple) -> Reported | None:
+    def number(self, container, path: tuple, name: str | None = None) -> Reported | None:
         key = path[-1]
-        if key not in container or container[key] is None:
+        if isinstance(container, dict):
+            if key not in container or container[key] is None:
+                return None
+        elif not (isinstance(key, int) and key < len(container)):
             return None
         raw = container[key]
         text = self.doc.texts.get(path)
         if text is None or isinstance(raw, str):
             text = str(raw)
         text = text.strip()
-        name = str(key)
+        name = name or str(key)
         if text.startswith("<"):
             bound = self._parse(text[1:], path, name, exact=True, shown=text)
             return Reported(bound.value, 0.0, bound.value, text, dotted(path), self.doc.line_of(path),
                             -math.inf, bound.log_high)
+        if path in EXACT_FIELDS and FRACTION.fullmatch(text):
+            return self._fraction(text, path)
         counting = name in COUNT_FIELDS
+        from_zero = name in ZERO_COUNT_FIELDS
         if name in NO_PERCENT_FIELDS and text.endswith("%"):
-            what = "a count" if counting else "a significance in sigma"
+            what = ("a count" if counting or from_zero else "a number of events" if name.startswith("background")
+                    else "a significance in sigma")
             self.fail(path, f"{name} is {what}, so the percentage {text} means nothing",
-                      "write it without a percent sign, such as " + ("30 or 2.5e7" if counting else "4.2"))
-        exact = path in EXACT_FIELDS or (counting and count_is_exact(text))
+                      "write it without a percent sign, such as " + ("30 or 2.5e7" if counting or from_zero else "4.2"))
+        exact = path in EXACT_FIELDS or ((counting or from_zero) and count_is_exact(text))
         printed = self._parse(text, path, name, exact)
+        if from_zero and (printed.value < 0 or printed.value != math.floor(printed.value)):
+            self.fail(path, f"{name} must be a whole number of at least 0, got {text}",
+                      "counts of events or items are whole numbers such as 0, 47 or 1200")
         if counting and (printed.value < 1 or printed.value != math.floor(printed.value)):
             self.fail(path, f"{name} must be a whole number of at least 1, got {text}",
                       "counts are whole numbers such as 30 or 2.5e7")
         return Reported(printed.value, printed.low, printed.high, text, dotted(path),
                         self.doc.line_of(path), printed.log_low, printed.log_high)
+
+    def _fraction(self, text: str, path: tuple) -> Reported:
+        """An exact fraction: its value as near as a double holds it, no printed
+        interval, and its log from the whole numbers (exact beyond the double range)."""
+        ratio = Fraction(text)
+        value = float(ratio)
+        if ratio > 0:
+            log_value = math.log(ratio.numerator) - math.log(ratio.denominator)
+        else:
+            log_value = -math.inf if ratio == 0 else math.nan
+        return Reported(value, value, value, text, dotted(path), self.doc.line_of(path), log_value, log_value)
 
     def _parse(self, text, path, name, exact, shown=None):
         try:
@@ -274,13 +339,17 @@ class _Builder:
             for i, b in enumerate(d.get("error_budget") or ())
         )
         tolerance = num("tolerance")
+        baseline, comparison = self._baseline(d), self._comparison(d)
+        observed, background = num("observed"), num("background")
+        estimate = num("estimate")
+        self._kind_inputs(d, estimate, sig, comparison, observed, background)
         qubits = num("qubits")
         if qubits is not None and qubits.value > 1000:
             self.fail(("qubits",), f"qubits must be at most 1000, got {qubits.text}",
                       "give the number of qubits of the device")
         return Claim(
             file=self.doc.file, title=str(d["title"]), metric=d["metric"],
-            estimate=num("estimate"), source=d.get("source"), qubits=qubits,
+            estimate=estimate, source=d.get("source"), qubits=qubits,
             stat_error=num("stat_error"), syst_error=num("syst_error"), interval=interval,
             samples=num("samples"), circuits=num("circuits"), sd=num("sd"),
             threshold=num("threshold"), significance=sig, trials=num("trials"), parts=parts,
@@ -288,6 +357,8 @@ class _Builder:
             integer_data=bool(d.get("integer_data", False)), items=num("items"),
             tolerance=tolerance.value if tolerance is not None else DEFAULT_TOLERANCE,
             counts_table=counts_table, rates=rates,
+            observed=observed, background=background, background_error=num("background_error"),
+            baseline=baseline, comparison=comparison,
         )
 
     def interval(self, iv: dict | None, path: tuple) -> Interval | None:
@@ -332,6 +403,55 @@ class _Builder:
             self.fail(("rates",), "rates are printed but no counts_table gives the counts they come from",
                       "add counts_table: {true_positive, false_positive, false_negative, true_negative}")
         return table, tuple(rates)
+    def _baseline(self, d: dict) -> Baseline | None:
+        b = d.get("baseline")
+        if not b:
+            return None
+        return Baseline(estimate=self.number(b, ("baseline", "estimate")),
+                        label=str(b.get("label") or "baseline"),
+                        stat_error=self.number(b, ("baseline", "stat_error")),
+                        samples=self.number(b, ("baseline", "samples")))
+
+    def _comparison(self, d: dict) -> Comparison | None:
+        c = d.get("comparison")
+        if not c:
+            return None
+        discordant = None
+        if c.get("discordant") is not None:
+            pair = c["discordant"]
+            discordant = tuple(self.number(pair, ("comparison", "discordant", i), name="discordant") for i in (0, 1))
+        return Comparison(paired=bool(c.get("paired", False)), discordant=discordant,
+                          difference=self.number(c, ("comparison", "difference")),
+                          difference_error=self.number(c, ("comparison", "difference_error")),
+                          sigma=self.number(c, ("comparison", "sigma")),
+                          p_value=self.number(c, ("comparison", "p_value")),
+                          sided=c.get("sided") or "one", test=c.get("test"),
+                          stated=frozenset(k for k in ("paired", "sided", "test") if k in c))
+
+    def _kind_inputs(self, d, estimate, sig, comparison, observed, background) -> None:
+        """What the schema cannot say: which kinds may leave the estimate out,
+        and the inputs a counting experiment needs."""
+        counting = d["metric"] == "counts"
+        if counting:
+            for key, value in (("observed", observed), ("background", background)):
+                if value is None:
+                    self.fail((key,), f"a counting experiment (metric counts) needs {key}",
+                              "give observed (events seen) and background (events expected without a signal)")
+            if background.value <= 0:
+                self.fail(("background",), f"background must be above 0, got {background.text}",
+                          "the expected number of background events, such as 30.2")
+        else:
+            for key in ("observed", "background", "background_error"):
+                if d.get(key) is not None:
+                    self.fail((key,), f"{key} belongs to a counting experiment, but metric is {d['metric']}",
+                              "write metric: counts, or leave out observed, background and background_error")
+        if estimate is not None or counting or d.get("counts_table"):
+            return
+        only_significances = (sig.sigma is not None or sig.p_value is not None) and sig.global_sigma is not None
+        printed_difference = comparison is not None and comparison.difference is not None
+        if not (only_significances or printed_difference):
+            self.fail(("estimate",), "estimate is missing", "give the headline value as printed; only "
+                      + ESTIMATE_OPTIONAL + " may leave it out")
 
 
 def _shortened(text: str, keep: int = 40) -> str:

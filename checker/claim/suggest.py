@@ -104,6 +104,11 @@ def field_suggestions(name: str, here: tuple = ()) -> list[tuple]:
     if local:
         return local
     elsewhere = [h for t in (*targets, name) for h in homes(t) if h[:-1] != here]
+    # A headline's significance is what a stray sigma or p_value most often means; the
+    # comparison with a baseline has fields of the same names.
+    headline = [h for h in elsewhere if h[0] == "significance"]
+    if headline and not here:
+        elsewhere = headline
     if elsewhere:
         return list(dict.fromkeys(elsewhere))
     close = difflib.get_close_matches(key, list(by_norm), n=1)

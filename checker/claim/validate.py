@@ -58,10 +58,22 @@ def _where(err) -> tuple:
     return path
 
 
-def _number_advice(text: str) -> str | None:
-    """Why a text that looks numeric is refused, for the YAML 1.1 surprises."""
+# Fields that may be written as an exact fraction (the schema's fraction pattern).
+FRACTION_FIELDS = ("threshold, tolerance, interval.level, significance.required_sigma, "
+                   "significance.upcrossing_sigma")
+
+
+def _number_advice(text: str, path: tuple = ()) -> str | None:
+    """Why a text that looks numeric is refused, for the YAML 1.1 surprises
+    and for fractions."""
     t = text.strip()
     low = t.lower()
+    if re.fullmatch(r"[+-]?[0-9.]+\s*/\s*[0-9.]+", t):
+        if dotted(tuple(k for k in path if not isinstance(k, int))) in FRACTION_FIELDS.split(", "):
+            return (f"{t} is not a fraction claimcheck reads",
+                    "write whole numbers without spaces and a denominator of at least 1, such as 2/3")
+        return (f"{t} is a fraction, which claimcheck reads only where a definition is exact "
+                f"({FRACTION_FIELDS})", "write the value with the digits the paper printed, such as 0.667")
     if _OCTAL.match(t):
         return (f"{t} has a leading zero, which YAML 1.1 reads as an octal number "
                 f"({int(t, 8) if set(t.lstrip('+-')) <= set('01234567') else 'not a number'})",
@@ -92,7 +104,7 @@ def describe(err, doc: Document) -> tuple[str, str]:
     schema = err.schema
     path = tuple(err.absolute_path)
     text = _text_at(doc, path)
-    field = str(path[-1]) if path else "the claim"
+    field = (f"{path[-2]} entry {path[-1]}" if len(path) > 1 and isinstance(path[-1], int) else str(path[-1])) if path else "the claim"
     validator = err.validator
     if validator == "additionalProperties":
         allowed_names = sorted(schema.get("properties", {}))
@@ -118,20 +130,21 @@ def describe(err, doc: Document) -> tuple[str, str]:
         if "number" in kinds or "integer" in kinds:
             counting = "integer" in kinds
             if isinstance(instance, str):
-                advice = _number_advice(instance)
+                advice = _number_advice(instance, path)
                 if advice:
                     return advice
             if isinstance(instance, bool):
                 return (f"{field} is {text or json.dumps(instance)}, a true/false value", "write a number")
+            least = next((a.get("minimum", 1) for a in schema[validator] if a.get("type") == "integer"), 1)
             if counting and isinstance(instance, (int, float)):
-                return (f"{field} must be a whole number of at least 1, got {text or instance}",
-                        "counts are whole numbers such as 30 or 2.5e7")
+                return (f"{field} must be a whole number of at least {least}, got {text or instance}",
+                        "counts are whole numbers such as " + ("0, 47 or 1200" if least == 0 else "30 or 2.5e7"))
             if isinstance(instance, (int, float)):
                 low = next((s.get("minimum") for s in schema[validator] if "minimum" in s), None)
                 if low is not None:
                     return (f"{field} must be at least {low}, got {text or instance}", "write a larger number")
             shown = text if text is not None else json.dumps(instance)[:60]
-            what = "a whole number of at least 1" if counting else "a number"
+            what = f"a whole number of at least {least}" if counting else "a number"
             return (f"{field} must be {what}, got {shown!r}",
                     "write digits such as 2.24e-3, 0.0224 or 2.24%")
     if validator == "type":
@@ -147,6 +160,9 @@ def describe(err, doc: Document) -> tuple[str, str]:
         if expected == "string":
             return (f"{field} must be text, got {shown!r}", "write the text, quoted if it looks like a number")
         return (f"{field} has the wrong kind of value ({shown!r})", f"expected {expected}")
+    if validator in ("minItems", "maxItems") and schema.get("minItems") == schema.get("maxItems"):
+        return (f"{field} holds {len(err.instance)} entries, not {schema['minItems']}",
+                "write [items only ours got right, items only the baseline got right]")
     if validator == "minItems":
         return (f"{field} is empty", "give at least one entry or leave the field out")
     if validator == "minLength":
@@ -155,7 +171,7 @@ def describe(err, doc: Document) -> tuple[str, str]:
         return (f"{field} must be at least {schema['minimum']}, got {text or err.instance}",
                 "write a larger number")
     if validator == "pattern":
-        advice = _number_advice(str(err.instance))
+        advice = _number_advice(str(err.instance), path)
         if advice:
             return advice
         return (f"{field} must be a number, got {err.instance!r}",

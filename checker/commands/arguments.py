@@ -5,6 +5,8 @@ from __future__ import annotations
 
 import argparse
 import math
+import re
+from fractions import Fraction
 
 
 def finite(text: str) -> float:
@@ -15,6 +17,24 @@ def finite(text: str) -> float:
     if not math.isfinite(x):
         raise argparse.ArgumentTypeError(f"must be a finite number, got {text!r}")
     return x
+
+
+def value(text: str) -> float:
+    """A finite number that may be written as a percentage, as in claim files
+    (``80%`` is 0.8) or an exact fraction (``2/3``), for options whose value is a fraction, a fidelity or a
+    level; significances in sigma and counts use ``finite`` and ``whole``."""
+    stripped = text.strip()
+    if re.fullmatch(r"[+-]?[0-9]+/[1-9][0-9]*", stripped):  # an exact fraction, as in claim files: 2/3
+        return float(Fraction(stripped))
+    if stripped.endswith("%"):
+        try:
+            x = float(stripped[:-1]) / 100.0
+        except ValueError:
+            x = math.nan
+        if not math.isfinite(x):
+            raise argparse.ArgumentTypeError(f"must be a finite number or percentage, got {text!r}")
+        return x
+    return finite(text)
 
 
 def whole(low: int, what: str, most: int | None = None):
@@ -39,7 +59,7 @@ def whole(low: int, what: str, most: int | None = None):
 
 
 def level(text: str) -> float:
-    x = finite(text)
+    x = value(text)
     if not 0.0 < x < 1.0:
         raise argparse.ArgumentTypeError(f"level must lie between 0 and 1, got {text}")
     return x

@@ -19,8 +19,8 @@ def add_parser(sub) -> None:
     p = sub.add_parser("drift", help=HELP, description=DESCRIPTION)
     p.add_argument("series", metavar="SERIES.csv", help="CSV with columns time, estimate[, error]")
     p.add_argument("--window", nargs=2, metavar=("START", "END"),
-                   help="the data-taking window of the headline number, in the time column's units "
-                        "(default: the whole series)")
+                   help="the data-taking window of the headline number, in the time column's units, or as "
+                        "date-times when the times are date-times (default: the whole series)")
     p.add_argument("--level", type=_level, default=0.95, help="level of the slope interval (default 0.95)")
     p.add_argument("--alpha", type=_alpha, default=0.05,
                    help="test size for rejecting a constant value (default 0.05)")
@@ -52,14 +52,18 @@ def run(args, stdout, stderr) -> int:
     except ArithmeticError:  # OverflowError, FloatingPointError
         raise DataError(args.series, "its times or values are so large that the fit overflows double precision",
                         "rescale the time or estimate column (different units)") from None
+    # Date-times are counted in hours since the first point: name it wherever a time is shown.
+    origin = series.origin.isoformat() if kind == "datetime" else None
     if args.json:
         from ..render.json import dumps
 
         out = {"file": args.series, "time_unit": "hours since the first point" if kind == "datetime" else "as given"}
+        if origin is not None:
+            out["time_origin"] = origin
         out.update(result.to_dict())
         stdout.write(dumps(out))
     else:
-        stdout.write(render_drift_text(result, args.series))
+        stdout.write(render_drift_text(result, args.series, origin))
     return 0
 
 

@@ -8,6 +8,7 @@ import math
 
 from .. import wording
 from .arguments import finite as _finite
+from .arguments import value as _value
 from .arguments import whole as _whole
 
 HELP = ("plan an experiment: the samples (circuits, for heavy-output) needed to reach a significance "
@@ -23,14 +24,14 @@ def _positive(text: str) -> float:
 
 
 def _not_negative(text: str) -> float:
-    x = _finite(text)
+    x = _value(text)
     if x < 0:
         raise argparse.ArgumentTypeError(f"must be zero or more, got {text!r}")
     return x
 
 
 def _power(text: str) -> float:
-    x = _finite(text)
+    x = _value(text)
     if not 0.5 <= x < 1:
         raise argparse.ArgumentTypeError(f"must lie in [0.5, 1), such as 0.8 or 0.9; got {text!r}")
     return x
@@ -45,21 +46,27 @@ def add_parser(sub) -> None:
                        "sqrt(v/N), v the metric model's per-sample variance at the expected value; a "
                        "systematic error adds in quadrature and caps the significance at (F - T)/S.")
     p.add_argument("--metric", required=True, choices=list(METRICS), help="the metric model")
-    p.add_argument("--fidelity", required=True, type=_finite, metavar="F",
-                   help="the value you expect to measure (fidelity, heavy-output probability, proportion, mean)")
-    p.add_argument("--threshold", type=_finite, metavar="T",
+    # Option names from the claim vocabulary (estimate, threshold, required_sigma, syst_error, samples,
+    # circuits, qubits, sd); the first names (--fidelity, --sigma, --syst) still work.
+    p.add_argument("--estimate", "--fidelity", dest="fidelity", required=True, type=_value, metavar="F",
+                   help="the value you expect to measure: a fidelity, heavy-output probability, proportion "
+                   "or mean (80%% is read as 0.8)")
+    p.add_argument("--threshold", type=_value, metavar="T",
                    help="the value the claim must exceed (heavy-output: 2/3 unless given)")
-    p.add_argument("--sigma", type=_positive, metavar="Z",
-                   help="the significance the claim must reach (heavy-output: 2 unless given)")
+    p.add_argument("--required-sigma", "--sigma", dest="sigma", type=_positive, metavar="Z",
+                   help="the significance the claim must reach, its required_sigma (heavy-output: 2 unless given)")
     p.add_argument("--power", type=_power, default=0.8, metavar="P",
-                   help="wanted probability of reaching Z (default 0.8)")
-    p.add_argument("--syst", type=_not_negative, default=0.0, metavar="S",
+                   help="wanted probability of reaching Z (default 0.8; 80%% works too)")
+    p.add_argument("--syst-error", "--syst", dest="syst", type=_not_negative, default=0.0, metavar="S",
                    help="systematic error, added in quadrature (default 0)")
     p.add_argument("--circuits", type=_count, metavar="K",
-                   help="heavy-output: the circuits you have; also report what they can detect")
+                   help="heavy-output: the circuits you have; also report what they can detect. "
+                        "linear-xeb, log-xeb (with --qubits): the circuits the samples come from, whose "
+                        "own spread (about 4F^2/D per circuit for linear XEB) no number of samples removes")
     p.add_argument("--samples", type=_count, metavar="N",
                    help="the samples you have; also report what they can detect")
-    p.add_argument("--qubits", type=_count, metavar="Q", help="linear-xeb: qubits, for the exact finite-D variance")
+    p.add_argument("--qubits", type=_count, metavar="Q",
+                   help="linear-xeb, log-xeb: qubits, for the exact finite-D variance and the circuit term")
     p.add_argument("--sd", type=_positive, metavar="SD", help="metric mean: the per-sample standard deviation")
     p.add_argument("--json", action="store_true", help="print the plan as JSON")
 
@@ -78,45 +85,54 @@ def run(args, stdout, stderr) -> int:
     model = METRICS[args.metric]
     count_name = model.count_field
     other = "samples" if count_name == "circuits" else "circuits"
-    if getattr(args, other) is not None:
+    xeb = args.metric in ("linear-xeb", "log-xeb")
+    if xeb and args.circuits is not None and args.qubits is None:
+        _fail("--circuits", "needs --qubits: the spread between circuits depends on D = 2^qubits", "give --qubits")
+    if getattr(args, other) is not None and not xeb:
         _fail(f"--{other}", f"does not apply: {args.metric} counts {count_name}", f"give --{count_name}")
     threshold, sigma = args.threshold, args.sigma
     if args.metric == "heavy-output":
         threshold = HEAVY_DEFAULTS["threshold"] if threshold is None else threshold
         sigma = HEAVY_DEFAULTS["sigma"] if sigma is None else sigma
-    for option, value in (("--threshold", threshold), ("--sigma", sigma)):
+    for option, value in (("--threshold", threshold), ("--required-sigma", sigma)):
         if value is None:
             _fail(option, f"is needed for {args.metric}", "give the value the plan must reach")
     if args.metric == "mean" and args.sd is None:
         _fail("--sd", "is needed for the mean model (the per-sample standard deviation)", "give --sd")
-    if args.qubits is not None and args.metric != "linear-xeb":
-        _fail("--qubits", f"enters only the linear-xeb variance, not {args.metric}'s", "leave it out")
+    if args.qubits is not None and not xeb:
+        _fail("--qubits", f"enters only the XEB variances, not {args.metric}'s", "leave it out")
     if not model.lowest <= args.fidelity <= model.highest:
-        _fail("--fidelity", f"{args.fidelity:g} lies outside [{model.lowest:g}, {model.highest:g}], "
+        _fail("--estimate", f"{args.fidelity:g} lies outside [{model.lowest:g}, {model.highest:g}], "
               f"the range of a {model.summary}", "give a value the metric can take")
-    inputs = ModelInputs(dimension=dimension_of(args.qubits) if args.metric == "linear-xeb" else None,
-                         sd=args.sd)
+    inputs = ModelInputs(dimension=dimension_of(args.qubits) if xeb else None, sd=args.sd)
+    k = args.circuits if xeb else None
 
     def variance_at(value: float) -> float:
-        return model.variance(value, inputs)
+        # With K circuits: the within-circuit part v - B scales with 1/N, B/K stays.
+        return model.within_variance(value, inputs) if k else model.variance(value, inputs)
+
+    def spread_at(value: float) -> float:
+        return model.circuit_variance(value, inputs) / k
 
     given = getattr(args, count_name)
     try:
+        spread = spread_at if k else None
         plan = plan_experiment(args.fidelity, threshold, variance_at, sigma, args.power, args.syst,
-                               highest=model.highest, counts=(given,) if given else ())
+                               highest=model.highest, counts=(given,) if given else (), spread_at=spread,
+                               circuits=k)
         at = None
         if given:
             at = {count_name: given,
                   "smallest_detectable": smallest_detectable(threshold, variance_at, given, sigma, args.power,
-                                                             args.syst, model.highest),
+                                                             args.syst, model.highest, spread),
                   "pass_probability": pass_probability(args.fidelity, threshold, plan.variance, given, sigma,
-                                                       args.syst)}
+                                                       args.syst, plan.spread)}
     except ArithmeticError:  # OverflowError, ZeroDivisionError: numbers beyond double precision
         from ..errors import ClaimcheckError
 
         raise ClaimcheckError("claimcheck plan", "the values given put the sample count beyond double precision "
                               "(a difference F - T or a systematic too small or too large)",
-                              "give --fidelity, --threshold, --syst and --sd of ordinary size") from None
+                              "give --estimate, --threshold, --syst-error and --sd of ordinary size") from None
     if args.json:
         from ..render.json import dumps
 
@@ -139,6 +155,9 @@ def _as_dict(args, plan, count_name, at) -> dict:
         "best_sigma": plan.best_sigma if math.isfinite(plan.best_sigma) else None,
         "reason": plan.reason or None,
         "per_sample_variance": plan.variance,
+        **({"circuits": args.circuits, "circuit_spread": plan.spread or None,
+            "circuits_needed": math.ceil(plan.circuits_needed) if plan.circuits_needed else None}
+           if count_name == "samples" else {}),
         "at": {k: _json_count(v) if k == count_name else v for k, v in at.items()} if at else at,
         "table": [{count_name: _json_count(r.count), "standard_error": r.standard_error, "expected_sigma": r.expected_sigma,
                    "pass_probability": r.pass_probability, "smallest_detectable": r.smallest_detectable}
@@ -181,7 +200,13 @@ def _as_text(args, plan, count_name, at) -> str:
     for r in plan.table:
         lines.append(f"  {wording.count(r.count):>12}  {_g(r.standard_error, 3):>10}  {_g(r.expected_sigma, 3):>14}  "
                      f"{_g(r.pass_probability, 3):>8}  {_g(r.smallest_detectable, 5)}")
-    lines += ["", f"The estimate is taken to scatter by sqrt(v/N), v = {_g(plan.variance)} the {args.metric} "
-              "per-sample variance at the expected value; P(pass) is the chance that (estimate - threshold) / "
-              "sqrt(se^2 + syst^2) reaches the target."]
+    if plan.spread:
+        lines += ["", f"The estimate is taken to scatter by sqrt(v/N + B/K), v = {_g(plan.variance)} the "
+                  f"{args.metric} variance of a sample within its circuit and B/K = {_g(plan.spread)} the spread of "
+                  f"the {args.circuits:,} circuits' own means, at the expected value; P(pass) is the chance that "
+                  "(estimate - threshold) / sqrt(se^2 + syst^2) reaches the target."]
+    else:
+        lines += ["", f"The estimate is taken to scatter by sqrt(v/N), v = {_g(plan.variance)} the {args.metric} "
+                  "per-sample variance at the expected value; P(pass) is the chance that (estimate - threshold) / "
+                  "sqrt(se^2 + syst^2) reaches the target."]
     return "\n".join(lines) + "\n"

@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import argparse
 
+from .arguments import value as _value
 from .arguments import whole as _whole
 
 HELP = "write a simulated raw dataset with a known fidelity (CSV, NPY, NPZ or Parquet)"
@@ -20,12 +21,17 @@ MAX_DEPTH = 1_000
 # Amplitude updates: circuits x 2**qubits for Porter-Thomas (up to 20 qubits, where
 # every probability is drawn) and circuits x depth x qubits x 2**qubits for circuits.
 MAX_WORK = {"porter-thomas": 2_000_000_000, "circuit": 5_000_000_000}
+# Defaults: 10 circuits x 1,000 samples, 10,000 rows written in a second or so, give a linear-XEB
+# standard error of about sqrt(1 + 2F - F^2) / 100 <= 0.015, so a chosen fidelity of 0.1 or more
+# stands out of the noise, and enough circuits for the spread between them to show.
+DEFAULT_CIRCUITS = 10
+DEFAULT_SAMPLES = 1_000
 
 
 def _fidelity(text: str) -> float:
     try:
-        value = float(text)
-    except ValueError:
+        value = _value(text)
+    except argparse.ArgumentTypeError:
         raise argparse.ArgumentTypeError(f"fidelity must be a number, got {text!r}") from None
     if not 0.0 <= value <= 1.0:
         raise argparse.ArgumentTypeError(f"fidelity must lie in [0, 1], got {text}")
@@ -36,8 +42,10 @@ def add_parser(sub) -> None:
     p = sub.add_parser("simulate", help=HELP, description=DESCRIPTION)
     p.add_argument("--qubits", type=_whole(1, "qubits"), required=True, metavar="N",
                    help="qubits (porter-thomas: up to 60; circuit: up to 20, about 16 is quick)")
-    p.add_argument("--circuits", type=_whole(1, "circuits"), required=True, metavar="K", help="circuits")
-    p.add_argument("--samples", type=_whole(1, "samples"), required=True, metavar="S", help="samples per circuit")
+    p.add_argument("--circuits", type=_whole(1, "circuits"), default=DEFAULT_CIRCUITS, metavar="K",
+                   help=f"circuits (default {DEFAULT_CIRCUITS})")
+    p.add_argument("--samples", type=_whole(1, "samples"), default=DEFAULT_SAMPLES, metavar="S",
+                   help=f"samples per circuit (default {DEFAULT_SAMPLES:,})")
     p.add_argument("--fidelity", type=_fidelity, required=True, metavar="F", help="true fidelity F in [0, 1]")
     p.add_argument("--out", required=True, metavar="FILE", help="output file: .csv, .npy, .npz or .parquet")
     p.add_argument("--seed", type=_whole(0, "seed"), default=0, metavar="S", help="random seed (default 0)")

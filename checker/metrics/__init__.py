@@ -1,6 +1,7 @@
 """Metric models, one file each; add a metric with one file and one line here."""
 
 from .base import MetricModel, ModelInputs
+from .counts import Counts
 from .heavy_output import HeavyOutput
 from .linear_xeb import LinearXEB
 from .log_xeb import LogXEB
@@ -13,6 +14,7 @@ METRICS: dict[str, MetricModel] = {
     "heavy-output": HeavyOutput(),
     "proportion": Proportion(),
     "mean": Mean(),
+    "counts": Counts(),
 }
 
 __all__ = ["METRICS", "MetricModel", "ModelInputs"]

@@ -15,3 +15,7 @@ class Mean(MetricModel):
 
     def needs(self) -> tuple[str, ...]:
         return ("sd",)
+
+    def variance_range(self, low: float, high: float, inputs: ModelInputs) -> tuple[float, float]:
+        v = self.variance(low, inputs)
+        return (v, v) if v is not None else (float("nan"), float("nan"))  # the same at every value

@@ -15,3 +15,8 @@ class Proportion(MetricModel):
 
     def variance(self, value: float, inputs: ModelInputs) -> float:
         return binomial_variance(value)
+
+    def variance_range(self, low: float, high: float, inputs: ModelInputs) -> tuple[float, float]:
+        from ..stats.ranges import binomial_variance_range  # numpy: loaded only by the checks
+
+        return binomial_variance_range(low, high)  # exact: p (1 - p) peaks at 1/2

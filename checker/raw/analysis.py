@@ -23,8 +23,6 @@ DEFAULT_REPLICATES = 10_000
 DEFAULT_FIT_SAMPLE = 100_000
 # D^2 must stay finite in double precision for the sums of squares of x = D p.
 MAX_QUBITS = 500
-# Circuits drawn over all replicates of the cluster bootstrap (its cost; README, "Limits").
-MAX_BOOTSTRAP_DRAWS = 1_000_000_000
 
 
 def analyse(path: str, metric: str, qubits: int, *, bootstrap: int = DEFAULT_REPLICATES, seed: int = 0,
@@ -79,7 +77,7 @@ def analyse(path: str, metric: str, qubits: int, *, bootstrap: int = DEFAULT_REP
     for chunk in table.chunks():
         acc.add(chunk)
     sums = acc.result(table.labels)
-    combined = combined_estimates(sums)
+    combined = combined_estimates(sums, circuits_known=table.has_circuit)
     if metric == "log-xeb" and combined["log-xeb"].estimate is None:
         zeros = int(sums.zeros.sum())
         raise DataError(path, f"{zeros} samples have probability 0, where ln(D p) is minus infinity",
@@ -105,10 +103,12 @@ def analyse(path: str, metric: str, qubits: int, *, bootstrap: int = DEFAULT_REP
         fits.append(max_likelihood_fidelity(bins.sum_x / bins.counts, bins.counts))
         fitted = fits[-1].fidelity
         if sums.sample.size >= 2:
-            tests.extend(fit_tests(sums.sample, fitted, dim, at="fitted"))
+            # The circuits' own K D outcomes are the reference's resolution (goodness_of_fit).
+            reference = sums.circuits * dim if dim is not None else None
+            tests.extend(fit_tests(sums.sample, fitted, dim, at="fitted", reference=reference))
             if threshold is not None:
-                tests.extend(fit_tests(sums.sample, threshold, dim, at="threshold"))
-            tests.extend(fit_tests(sums.sample, 0.0, dim, at="zero"))
+                tests.extend(fit_tests(sums.sample, threshold, dim, at="threshold", reference=reference))
+            tests.extend(fit_tests(sums.sample, 0.0, dim, at="zero", reference=reference))
             histogram = mixture_histogram(sums.sample, fitted, dim)
             resolution = _resolution_note(sums, dim)
             if resolution:
@@ -119,13 +119,17 @@ def analyse(path: str, metric: str, qubits: int, *, bootstrap: int = DEFAULT_REP
         if fitted < 0.0 or fitted > 1.0:
             notes.append(f"The maximum-likelihood fidelity {fitted:.4g} lies outside [0, 1]; the tests at the "
                          "fitted fidelity use it clipped to [0, 1].")
-        if bootstrap > 0 and sums.circuits >= 2 and sums.circuits * bootstrap > MAX_BOOTSTRAP_DRAWS:
-            most = MAX_BOOTSTRAP_DRAWS // sums.circuits
-            raise DataError(path, f"the cluster bootstrap of {sums.circuits:,} circuits x {bootstrap:,} replicates "
-                            f"draws more than {MAX_BOOTSTRAP_DRAWS:,} circuits",
-                            f"give --bootstrap {most:,} or fewer (or --bootstrap 0)", path="bootstrap")
         if bootstrap > 0:
             summary = _bootstrap(metric, sums, combined, bootstrap, boot_rng, level, seed)
+            if summary.interval == "t over circuits" and summary.circuits < boot.PERCENTILE_MIN_CIRCUITS:
+                cover = summary.percentile_coverage
+                notes.append(f"With {summary.circuits} circuits the percentile and basic bootstrap intervals undercover"
+                             + (f" (a nominal 95% percentile interval covered about {cover:.0%} in seeded simulations)"
+                                if cover is not None else "")
+                             + f"; the interval given first is the t interval on {summary.circuits - 1} degrees of "
+                             f"freedom, which holds its level from 2 circuits when the circuit means are near "
+                             f"Gaussian. Below {boot.PERCENTILE_MIN_CIRCUITS} circuits read the percentile interval "
+                             "as too narrow.")
             if summary.resampling == "binned":
                 notes.append(f"Bootstrap of one sample by value bins ({summary.bins} bins): the within-bin share "
                              f"of the variance is {summary.within_share:.2g}; each replicate stands within "
@@ -142,14 +146,17 @@ def _resolution_note(sums, dim) -> str:
     from the continuous Porter-Thomas law by about what the tests resolve."""
     if dim is None:
         return ""
+    from ..stats.goodness_of_fit import tested_size
+
     distinct = sums.circuits * dim
     k = sums.sample.size
-    if k <= distinct / 4.0:
+    m = tested_size(k, distinct)
+    if m >= k and k <= distinct / 4.0:
         return ""
-    return (f"The ideal probabilities come from {sums.circuits:,} circuit(s) of D = {dim:,.0f} outcomes; their own "
-            f"spread about the Porter-Thomas law (about 1/sqrt(K D) = {distinct ** -0.5:.2g}) is comparable to what "
-            f"the tests resolve with {k:,} samples (about 1/sqrt(n) = {k ** -0.5:.2g}), so they may reject even "
-            "the right fidelity.")
+    return (f"The ideal probabilities come from {sums.circuits:,} circuit(s) of D = {dim:,.0f} outcomes, whose own "
+            f"spread about the Porter-Thomas law (about 1/sqrt(K D) = {distinct ** -0.5:.2g}) limits what a test "
+            f"can resolve: the goodness-of-fit tests use {m:,} of the {k:,} values kept and count that spread in "
+            "their p-values (calibrated so data from the model give p < 0.01 in about 1% of runs).")
 
 
 def _notes(sums, table, combined) -> list[str]:
@@ -195,7 +202,27 @@ def _bootstrap(metric, sums, combined, replicates, rng, level, seed) -> Bootstra
     blow, bhigh = result.basic_interval(level)
     edges, density = boot.histogram(result.replicates)
     counts, _ = np.histogram(result.replicates, bins=edges)
-    return BootstrapSummary(level=level, low=low, high=high, basic_low=blow, basic_high=bhigh,
+    over = {}
+    if result.method.startswith("circuits"):
+        # Few circuits: the t interval on K - 1 degrees of freedom holds its level where the
+        # percentile interval does not (checker.stats.bootstrap, measured coverage).
+        if metric == "heavy-output":
+            has = sums.heavy_n > 0
+            per = sums.heavy_sum[has] / sums.heavy_n[has]
+            t_iv = boot.cluster_t_interval(per, np.ones_like(per), level)
+        else:
+            totals = sums.sum_x if metric == "linear-xeb" else sums.sum_l
+            shift = -1.0 if metric == "linear-xeb" else EULER_GAMMA
+            t_iv = boot.cluster_t_interval(totals, sums.n, level)
+            t_iv = boot.ClusterInterval(t_iv.low + shift, t_iv.high + shift, t_iv.estimate + shift,
+                                        t_iv.stat_error, t_iv.circuits, t_iv.level)
+        k = t_iv.circuits
+        measured = [c for kk, c in sorted(boot.PERCENTILE_COVERAGE.items()) if kk <= k]
+        over = {"interval": "t over circuits", "percentile_low": low, "percentile_high": high,
+                "percentile_coverage": measured[-1] if measured and k < boot.PERCENTILE_MIN_CIRCUITS else None,
+                "circuits": k}
+        low, high = t_iv.low, t_iv.high
+    return BootstrapSummary(level=level, low=low, high=high, basic_low=blow, basic_high=bhigh, **over,
                             replicates=result.count, resampling=result.method, sd=result.sd,
                             within_share=result.within_share, error_bound=result.error_bound,
                             bins=result.bins, seed=seed, histogram_edges=tuple(float(e) for e in edges),

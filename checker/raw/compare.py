@@ -73,6 +73,9 @@ def _estimate(claim: Claim, result: RawResult) -> Iterator[Finding]:
     if head.estimate is None:
         yield Finding("skip", f"The raw data give no {result.metric} estimate ({head.note}).")
         return
+    if printed is None:
+        yield Finding("skip", "The claim prints no estimate to compare with the data's.")
+        return
     raw = (head.estimate * factor[0], head.estimate * factor[1])
     raw = (min(raw), max(raw))
     se = head.stat_error_data or head.stat_error
@@ -134,19 +137,19 @@ def _error(claim: Claim, result: RawResult) -> Iterator[Finding]:
              f"(model {_num(model)}{', between circuits ' + _num(cluster) if cluster else ''})")
     candidates = {"data": data, "between circuits": cluster, "model": model}
     match = next((k for k, v in candidates.items() if v and agrees(printed.bounds, (v, v), tol)), None)
-    if printed.high * (1 + tol) < data * (1 - slack):
+    if data * (1 - slack) - printed.high > tol * printed.value:
         yield Finding("fail", f"{words}: smaller than sampling alone allows ({_num(ratio, 2)}x)"
                       f"{'; it matches the ' + match + ' error' if match else ''}.",
                       reported=printed.value, recomputed=data,
                       reproduced_by={"error": match} if match else None, details=details)
         return
     if cluster and cluster > data * (1 + 3.0 / math.sqrt(2.0 * max(result.circuit_count - 1, 1))) \
-            and printed.high * (1 + tol) < cluster:
+            and cluster - printed.high > tol * printed.value:
         yield Finding("warn", f"{words}: the circuits scatter more than their samples explain, and the printed "
                       f"error does not include it ({_num(printed.value / cluster, 2)}x the between-circuit error).",
                       reported=printed.value, recomputed=cluster, details=details)
         return
-    if printed.low > ERROR_WARN_RATIO * max(v for v in candidates.values() if v) * (1 + tol):
+    if printed.low - ERROR_WARN_RATIO * max(v for v in candidates.values() if v) > tol * printed.value:
         yield Finding("warn", f"{words}: {_num(ratio, 2)}x larger than the data need; the print may include more "
                       "than sampling.", reported=printed.value, recomputed=data, details=details)
         return
@@ -233,8 +236,11 @@ def claim_with_raw_numbers(claim: Claim, result: RawResult) -> Claim | None:
         return None
     changes = {"estimate": _like(head.estimate, claim.estimate, "estimate"),
                "samples": _reported(result.rows, "samples")}
-    if head.stat_error_data:
-        changes["stat_error"] = _like(head.stat_error_data, claim.stat_error, "stat_error")
+    # Over several circuits the data's own error is the between-circuit one: it holds the
+    # circuits' spread, which the per-sample error leaves out.
+    data_error = head.extra.get("stat_error_circuits") or head.stat_error_data
+    if data_error:
+        changes["stat_error"] = _like(data_error, claim.stat_error, "stat_error")
     if result.extra.get("has_circuit", True):
         changes["circuits"] = _reported(result.circuit_count, "circuits")
     return replace(claim, interval=None, **changes)

@@ -15,6 +15,18 @@ estimate) and one from the data (the sample standard deviation over sqrt(N));
 for the combined estimate over several circuits also a between-circuit one
 (the usual linearised standard error of a ratio of cluster totals).
 
+The model error of one circuit's estimate is that of its own samples,
+sqrt((v - B)/n): v the per-sample variance, B the circuit-to-circuit variance
+of each circuit's own mean, v - B the expected variance inside one circuit.
+The model error of the combined estimate over circuits with n_c samples each
+(N in all) adds what the circuits' own means scatter by:
+sqrt((v - B)/N + B sum n_c^2 / N^2), sqrt((v - B)/N + B/K) for equal counts
+(checker.stats.porter_thomas).  Its ratio compares like with like: the
+between-circuit error from the data over this model error when there are two
+or more circuits, else the data's per-sample error over sqrt((v - B)/N).
+Without a circuit column the number of circuits is not known and the model
+error is sqrt(v/N), the smallest any number of circuits allows.
+
 References
 ----------
 S. Boixo et al., Nature Physics 14, 595 (2018), arXiv:1608.00263.
@@ -346,32 +358,62 @@ def _sample_sd(n: float, s: float, s2: float) -> float | None:
 
 
 def _model_error(metric: str, value: float, count: float, dimension) -> float | None:
-    inputs = ModelInputs(dimension=dimension if metric == "linear-xeb" else None)
+    inputs = ModelInputs(dimension=dimension if metric in ("linear-xeb", "log-xeb") else None)
     return METRICS[metric].standard_error(value, count, inputs)
 
 
-def linear_xeb(n: float, sx: float, sx2: float, qubits: int) -> MetricEstimate:
+def _within_error(metric: str, value: float, count: float, dimension) -> float | None:
+    """sqrt((v - B)/n): the model error of one circuit's own mean of n samples."""
+    w = METRICS[metric].within_variance(value, ModelInputs(dimension=dimension))
+    if w is None or count <= 0:
+        return None
+    return math.sqrt(w / count)
+
+
+def _pooled_model_error(metric: str, value: float, n: float, counts: np.ndarray | None,
+                        dimension) -> float | None:
+    """sqrt((v - B)/N + B sum n_c^2 / N^2) over circuits with ``counts`` samples
+    each; sqrt(v / N) when ``counts`` is None (the circuits are not known)."""
+    model = METRICS[metric]
+    inputs = ModelInputs(dimension=dimension)
+    v = model.variance(value, inputs)
+    if v is None or not n > 0:
+        return None
+    if counts is None:
+        return math.sqrt(v / n)
+    b = model.circuit_variance(value, inputs)
+    return math.sqrt(max(v - b, 0.0) / n + b * float(np.sum(np.square(counts))) / (n * n))
+
+
+def linear_xeb(n: float, sx: float, sx2: float, qubits: int, pooled: bool = False,
+               counts: np.ndarray | None = None) -> MetricEstimate:
+    """One circuit's estimate, or (``pooled``) the one over circuits with
+    ``counts`` samples each (None: circuits not known)."""
     mean = float(sx) / float(n)
     est = mean - 1.0
     sd = _sample_sd(n, sx, sx2)
     data = sd / math.sqrt(n) if sd is not None else None
     dim = dimension_of(qubits)
-    model = _model_error("linear-xeb", est, n, dim)
+    within = _within_error("linear-xeb", est, n, dim)
+    model = _pooled_model_error("linear-xeb", est, n, counts, dim) if pooled else within
     factor = finite_dimension_factor(dim)
-    return MetricEstimate("linear-xeb", est, model, data, int(n), _ratio(data, model),
+    return MetricEstimate("linear-xeb", est, model, data, int(n), _ratio(data, within),
                           {"fidelity_finite_d": est / factor, "finite_d_factor": factor})
 
 
-def log_xeb(n: float, sl: float, sl2: float, zeros: float, qubits: int) -> MetricEstimate:
+def log_xeb(n: float, sl: float, sl2: float, zeros: float, qubits: int, pooled: bool = False,
+            counts: np.ndarray | None = None) -> MetricEstimate:
     if zeros:
         return MetricEstimate("log-xeb", None, None, None, int(n), None,
                               note=f"{int(zeros)} samples have probability 0, so ln(D p) is minus infinity")
     est = float(sl) / float(n) + EULER_GAMMA
     sd = _sample_sd(n, sl, sl2)
     data = sd / math.sqrt(n) if sd is not None else None
-    model = _model_error("log-xeb", est, n, None)
-    return MetricEstimate("log-xeb", est, model, data, int(n), _ratio(data, model),
-                          {"fidelity_finite_d": log_xeb_finite_dimension(est, dimension_of(qubits))})
+    dim = dimension_of(qubits)
+    within = _within_error("log-xeb", est, n, dim)
+    model = _pooled_model_error("log-xeb", est, n, counts, dim) if pooled else within
+    return MetricEstimate("log-xeb", est, model, data, int(n), _ratio(data, within),
+                          {"fidelity_finite_d": log_xeb_finite_dimension(est, dim)})
 
 
 def heavy_output(n: float, h_sum: float) -> MetricEstimate:
@@ -405,16 +447,32 @@ def _cluster_error(totals: np.ndarray, counts: np.ndarray) -> float | None:
     return math.sqrt(k / (k - 1) * float(np.sum(resid ** 2))) / float(counts.sum())
 
 
-def combined_estimates(sums: Sums) -> dict:
-    """All circuits together: {metric name: MetricEstimate}."""
+def _pooled(est: MetricEstimate, totals: np.ndarray, sums: Sums, known: bool) -> MetricEstimate:
+    """The pooled estimate with its between-circuit error, and the ratio of like to like."""
+    cluster = _cluster_error(totals, sums.n)
+    extra = {**est.extra, "stat_error_circuits": cluster}
+    if cluster is not None:
+        return replace(est, ratio=_ratio(cluster, est.stat_error),
+                       extra={**extra, "ratio_of": "between-circuit error over model error"})
+    if not known:
+        return replace(est, ratio=_ratio(est.stat_error_data, est.stat_error),
+                       extra={**extra, "ratio_of": "per-sample error over model error (circuits not known)"})
+    return replace(est, extra={**extra, "ratio_of": "per-sample error over the model's within-circuit error"})
+
+
+def combined_estimates(sums: Sums, circuits_known: bool = True) -> dict:
+    """All circuits together: {metric name: MetricEstimate}.  ``circuits_known``
+    False (no circuit column): the model error is sqrt(v / N), the smallest any
+    number of circuits allows."""
     n = float(sums.n.sum())
-    lin = linear_xeb(n, float(sums.sum_x.sum()), float(sums.sum_x2.sum()), sums.qubits)
-    out = {"linear-xeb": replace(lin, extra={**lin.extra,
-                                            "stat_error_circuits": _cluster_error(sums.sum_x, sums.n)})}
+    counts = sums.n if circuits_known else None
+    lin = linear_xeb(n, float(sums.sum_x.sum()), float(sums.sum_x2.sum()), sums.qubits, True, counts)
+    out = {"linear-xeb": _pooled(lin, sums.sum_x, sums, circuits_known)}
     if sums.sum_l is not None:
-        lg = log_xeb(n, float(sums.sum_l.sum()), float(sums.sum_l2.sum()), float(sums.zeros.sum()), sums.qubits)
+        lg = log_xeb(n, float(sums.sum_l.sum()), float(sums.sum_l2.sum()), float(sums.zeros.sum()), sums.qubits,
+                     True, counts)
         if lg.estimate is not None:
-            lg = replace(lg, extra={**lg.extra, "stat_error_circuits": _cluster_error(sums.sum_l, sums.n)})
+            lg = _pooled(lg, sums.sum_l, sums, circuits_known)
         out["log-xeb"] = lg
     if sums.heavy_n is not None:
         has = sums.heavy_n > 0

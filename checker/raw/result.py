@@ -32,7 +32,7 @@ class BootstrapSummary:
     """Bootstrap intervals for the combined estimate."""
 
     level: float
-    low: float  # percentile interval
+    low: float  # the interval named by ``interval``
     high: float
     basic_low: float
     basic_high: float
@@ -46,12 +46,24 @@ class BootstrapSummary:
     histogram_edges: tuple = ()
     histogram_density: tuple = ()
     histogram_counts: tuple = ()  # replicates per bin, on the same edges
+    # "percentile", or over several circuits "t over circuits" (t on K - 1 degrees of freedom,
+    # which holds its level with few circuits; checker.stats.bootstrap)
+    interval: str = "percentile"
+    percentile_low: float | None = None
+    percentile_high: float | None = None
+    percentile_coverage: float | None = None  # measured coverage of the percentile interval at this K
+    circuits: int = 0
 
     def to_dict(self) -> dict:
-        return {"level": self.level, "low": self.low, "high": self.high, "replicates": self.replicates,
-                "method": "percentile", "basic": {"low": self.basic_low, "high": self.basic_high},
-                "resampling": self.resampling, "sd": self.sd, "within_bin_share": self.within_share,
-                "error_bound": self.error_bound, "bins": self.bins, "seed": self.seed}
+        out = {"level": self.level, "low": self.low, "high": self.high, "replicates": self.replicates,
+               "method": self.interval, "basic": {"low": self.basic_low, "high": self.basic_high},
+               "resampling": self.resampling, "sd": self.sd, "within_bin_share": self.within_share,
+               "error_bound": self.error_bound, "bins": self.bins, "seed": self.seed}
+        if self.interval != "percentile":
+            out["percentile"] = {"low": self.percentile_low, "high": self.percentile_high,
+                                 "measured_coverage": self.percentile_coverage}
+            out["degrees_of_freedom"] = self.circuits - 1
+        return out
 
 
 @dataclass(frozen=True)

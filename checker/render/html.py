@@ -336,6 +336,8 @@ def _significance_figure(report: Report, claim: Claim) -> str | None:
         return None
     if claim.threshold is None or claim.stat_error is None or not claim.stat_error.value > 0:
         return None
+    if claim.estimate is None:
+        return None
     sig = claim.significance
     width, label = claim.stat_error.value, "stat_error"
     syst = claim.syst_error.value if claim.syst_error is not None else None
@@ -445,10 +447,11 @@ def _budget_figure(report: Report, claim: Claim) -> str | None:
     sd = d.get("predicted_sd") if _is_num(d.get("predicted_sd")) else None
     expo = d.get("predicted_exponential") if _is_num(d.get("predicted_exponential")) else None
     svg = budget_svg(comps, d["predicted"], sd, measured, expo,
-                     measured_text=claim.estimate.text if measured == claim.estimate.value else None)
+                     measured_text=claim.estimate.text if claim.estimate and measured == claim.estimate.value
+                     else None)
     rows.append(["predicted (product)", "", "", num(d["predicted"]) + (f" ± {num(sd)}" if sd else "")])
     if measured is not None:
-        shown = claim.estimate.text if measured == claim.estimate.value else num(measured)
+        shown = claim.estimate.text if claim.estimate and measured == claim.estimate.value else num(measured)
         rows.append(["measured (estimate)", "", "", shown])
     if _is_num(d.get("ratio")):
         rows.append(["measured / predicted", "", "", num(d["ratio"])])

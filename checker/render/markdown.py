@@ -111,7 +111,8 @@ def render_markdown(report: Report, claim: Claim) -> str:
     where = f"Numbers as read from {_code(report.file)}"
     if claim.source:
         where += f" (source: {md(claim.source)})"
-    out += [where + f"; metric {_code(claim.metric)}, headline estimate {_code(claim.estimate.text)}.", ""]
+    headline = f"headline estimate {_code(claim.estimate.text)}" if claim.estimate else "no headline estimate"
+    out += [where + f"; metric {_code(claim.metric)}, {headline}.", ""]
 
     raised = list(points(report, claim, ("fail", "warn")))
     if raised:

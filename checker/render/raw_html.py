@@ -126,7 +126,9 @@ def _bootstrap_section(result) -> str:
     if b is None:
         return _note("No bootstrap was run (--bootstrap 0 or --estimate-only).")
     rows = [["interval level", f"{num(100 * b.level, 3)}%"],
-            ["percentile interval", f"{num(b.low, 4)} to {num(b.high, 4)}"],
+            [f"{b.interval} interval", f"{num(b.low, 4)} to {num(b.high, 4)}"],
+            *([["percentile interval", f"{num(b.percentile_low, 4)} to {num(b.percentile_high, 4)}"]]
+              if b.interval != "percentile" else []),
             ["basic interval", f"{num(b.basic_low, 4)} to {num(b.basic_high, 4)}"],
             ["standard deviation of the replicates", num(b.sd)],
             ["replicates", f"{b.replicates:,}"],
@@ -144,7 +146,7 @@ def _bootstrap_section(result) -> str:
         out.append(_note(f"The picture is left out: {exc}."))
         return "\n".join(out)
     caption = (f"The headline estimate in each of {b.replicates:,} bootstrap replicates; the shaded band "
-               f"between dashed lines is the {num(100 * b.level, 3)}% percentile interval, "
+               f"between dashed lines is the {num(100 * b.level, 3)}% {b.interval} interval, "
                f"{num(b.low, 4)} to {num(b.high, 4)}. The estimate from all the data is "
                f"{num(result.headline.estimate, 4)}.")
     out.append(figure_html(svg, caption, "figure-bootstrap"))

@@ -65,7 +65,7 @@ def render_raw_markdown(result, report: Report | Sequence[Finding] | None = None
     b = result.bootstrap
     if b is not None:
         lines.append(f"- Bootstrap ({b.replicates:,} replicates, {_RESAMPLING_WORDS.get(b.resampling, b.resampling)}, "
-                     f"seed {b.seed}): {num(100 * b.level, 3)}% percentile interval {num(b.low, 4)} to "
+                     f"seed {b.seed}): {num(100 * b.level, 3)}% {b.interval} interval {num(b.low, 4)} to "
                      f"{num(b.high, 4)}")
     if result.fits or result.goodness_of_fit or b is not None:
         lines.append("")

@@ -49,9 +49,11 @@ def render_raw_text(result) -> str:
             lines.append(f"  {AT_WORDS[at]:<9} F = {_n(tests[0].fidelity)}   {parts}")
     b = result.bootstrap
     if b is not None:
+        first = f"{b.level:.0%} {b.interval} {_n(b.low)} to {_n(b.high)}; "
+        if b.interval != "percentile":
+            first += f"percentile {_n(b.percentile_low)} to {_n(b.percentile_high)}; "
         lines += ["", f"Bootstrap ({b.replicates:,} replicates, {b.resampling} resampled, seed {b.seed}): "
-                  f"{b.level:.0%} percentile {_n(b.low)} to {_n(b.high)}; basic {_n(b.basic_low)} to "
-                  f"{_n(b.basic_high)}; sd {_n(b.sd, 3)}"]
+                  f"{first}basic {_n(b.basic_low)} to {_n(b.basic_high)}; sd {_n(b.sd, 3)}"]
     if result.circuit_count > 1:
         lines += ["", f"Per circuit ({METRIC_WORDS[result.metric]}"
                   f"{', first ' + str(MAX_CIRCUIT_LINES) if result.circuit_count > MAX_CIRCUIT_LINES else ''}):",
@@ -107,15 +109,18 @@ def _visible(findings):
     return shown, same
 
 
-def render_drift_text(result, file: str) -> str:
-    """The stability summary of one series."""
+def render_drift_text(result, file: str, origin: str | None = None) -> str:
+    """The stability summary of one series; ``origin`` is the first point's
+    date-time when the times were date-times (then counted in hours since it)."""
     r = result
-    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)} "
+    unit = f" hours since the first point ({origin})" if origin else ""
+    per = "per hour" if origin else "per unit time"
+    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)}{unit} "
              f"({r.window_points} points)", ""]
-    lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} per unit time; {r.level:.0%} interval "
+    lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} {per}; {r.level:.0%} interval "
                  f"{_n(r.slope_low)} to {_n(r.slope_high)} ({p_equals(r.slope_p_value)})")
     lines.append(f"  level at window  {_n(r.trend_level)} +- {_n(r.trend_level_error, 3)} (intercept at the window "
-                 "centre)")
+                 f"centre; {r.level:.0%} interval {_n(r.trend_level_low)} to {_n(r.trend_level_high)})")
     lines.append(f"  trend across window {_n(r.trend_change, 3)} (as a spread {_n(r.trend_spread, 3)})")
     spread = f"  residual sd      {_n(r.residual_sd, 3)} overall"
     if r.residual_sd_window is not None:
@@ -126,11 +131,16 @@ def render_drift_text(result, file: str) -> str:
     if r.excess_spread_window is not None:
         lines.append(f"  excess spread    {_n(r.excess_spread_window, 3)}"
                      f"{'' if r.stated_error_rms_window is not None else ' (no errors given: all of the residual spread)'}")
-    lines.append(f"  systematic       {_n(r.systematic, 3)} (trend spread, excess spread and intercept error in "
-                 "quadrature)")
+    if r.consistent_with_none:
+        lines.append(f"  systematic       consistent with none (estimate {_n(r.systematic_estimate, 3)}; "
+                     f"{r.level:.0%} upper limit {_n(r.systematic_upper, 3)})")
+    else:
+        lines.append(f"  systematic       {_n(r.systematic, 3)} (drift beyond its noise and excess spread in quadrature; "
+                     f"{r.level:.0%} upper limit {_n(r.systematic_upper, 3)})")
     if r.constant_chi2 is not None:
-        lines.append(f"  constant model   chi2 = {_n(r.constant_chi2, 4)} for {r.constant_dof} dof, "
-                     f"{p_equals(r.constant_p_value)}")
+        lines.append(f"  constant model   chi2 = {_n(r.constant_chi2, 4)} for {r.constant_dof} dof about the line "
+                     f"({p_equals(r.scatter_p_value)}), weighted slope {p_equals(r.weighted_slope_p_value)}; "
+                     f"combined {p_equals(r.constant_p_value)}")
     verdict = ("rejected (" + " and ".join({"slope": "the slope differs from 0",
                                             "scatter": "the scatter exceeds the stated errors"}[x]
                                            for x in r.reasons) + f", alpha {r.alpha:g})"

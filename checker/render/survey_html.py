@@ -11,7 +11,7 @@ from .html import CSP
 
 from ..vocabulary import CAUTION_SHORT
 from ..wording import plural
-from .survey_text import frame_records
+from .survey_text import _verb, frame_records
 
 _COLUMNS = (
     ("source", "source"), ("title", "claim"), ("verdict", "verdict"), ("failed_checks", "flagged checks"),
@@ -30,6 +30,8 @@ td.num { text-align: right; font-variant-numeric: tabular-nums; }
 tr.inconsistent td { background: #fff1e6; }
 tr.unusable td { background: #f4f4f4; color: #666; }
 p.caution { font-style: italic; }
+div.wide { max-width: 100%; overflow-x: auto; }
+div.wide td { max-width: 30em; overflow-wrap: anywhere; }
 """
 
 
@@ -52,15 +54,16 @@ def _cell(key: str, value) -> str:
 def render_batch_html(frame, summary: dict) -> str:
     v = summary["verdicts"]
     clear = summary["clear_required_sigma"]
+    need = summary["with_required_sigma"]
     facts = [
         f"{plural(summary['rows'], summary.get('unit', 'row'))}; {plural(summary['checked'], 'claim')} checked; "
         f"{plural(summary['unusable'], summary.get('unit', 'row'))} could not be used.",
         f"Verdicts: {v['consistent']:,} consistent, {v['inconsistent']:,} inconsistent, "
         f"{v['incomplete']:,} incomplete.",
-        f"Of {summary['with_required_sigma']:,} claims that state a required sigma, "
-        f"{clear['recomputed']:,} clear it as recomputed, {clear['holm']:,} after Holm and "
-        f"{clear['bh']:,} after Benjamini-Hochberg adjustment across {summary['tested']:,} "
-        "recomputed p-values.",
+        f"Of {plural(need, 'claim')} that {_verb(need, 'state')} a required sigma, "
+        f"{clear['recomputed']:,} {_verb(clear['recomputed'], 'clear')} it as recomputed, "
+        f"{clear['holm']:,} after Holm and {clear['bh']:,} after Benjamini-Hochberg adjustment across "
+        f"{plural(summary['tested'], 'recomputed p-value')}.",
     ]
     head = "".join(f"<th>{escape(label)}</th>" for _, label in _COLUMNS)
     body = []
@@ -76,6 +79,9 @@ def render_batch_html(frame, summary: dict) -> str:
         f"<h1>{escape(title)}</h1>\n"
         + "".join(f"<p>{escape(f)}</p>\n" for f in facts)
         + f'<p class="caution">{escape(CAUTION_SHORT)}</p>\n'
-        + f"<table>\n<thead><tr>{head}</tr></thead>\n<tbody>\n" + "\n".join(body) + "\n</tbody>\n</table>\n"
+        # A wide table scrolls inside its own box instead of running off the page; the box takes
+        # the keyboard focus so that it scrolls without a mouse too.
+        + '<div class="wide" role="region" aria-label="claims" tabindex="0">\n'
+        + f"<table>\n<thead><tr>{head}</tr></thead>\n<tbody>\n" + "\n".join(body) + "\n</tbody>\n</table>\n</div>\n"
         + "</body>\n</html>\n"
     )

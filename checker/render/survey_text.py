@@ -13,6 +13,11 @@ from .json import dumps
 SHOW_AT_MOST = 20
 
 
+def _verb(n: int, many: str, one: str | None = None) -> str:
+    """The verb agreeing with a count: "1 claim states", "2 claims state"."""
+    return (one or many + "s") if n == 1 else many
+
+
 def render_batch_text(frame, summary: dict) -> str:
     """The summary a person reads first: counts, the adjusted tally, and the
     claims that were flagged."""
@@ -26,8 +31,9 @@ def render_batch_text(frame, summary: dict) -> str:
     need = summary["with_required_sigma"]
     clear = summary["clear_required_sigma"]
     if need:
-        lines.append(f"required sigma: {plural(need, 'claim')} state one and have a recomputed significance; "
-                     f"{clear['recomputed']:,} clear it as recomputed, {clear['holm']:,} after Holm and "
+        lines.append(f"required sigma: {plural(need, 'claim')} {_verb(need, 'state')} one and "
+                     f"{_verb(need, 'have', 'has')} a recomputed significance; {clear['recomputed']:,} "
+                     f"{_verb(clear['recomputed'], 'clear')} it as recomputed, {clear['holm']:,} after Holm and "
                      f"{clear['bh']:,} after Benjamini-Hochberg adjustment across "
                      f"{plural(summary['tested'], 'recomputed p-value')}")
     elif summary["tested"]:

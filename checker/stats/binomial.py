@@ -31,3 +31,18 @@ def heavy_output_minimum_mean(circuits: int, z: float = 2.0,
     b = -(2.0 * threshold + z * z / n)
     c = threshold * threshold
     return (-b + math.sqrt(b * b - 4.0 * a * c)) / (2.0 * a)
+
+
+def heavy_output_sigma(h: float, threshold: float, circuits: float, syst: float = 0.0) -> float | None:
+    """The heavy-output criterion's z: (h - threshold) / sqrt(h (1 - h) / circuits (+ syst^2)),
+    the error over circuits taken at the estimate (Cross et al. 2019).
+
+    Over a box of h and circuits it is exact at the vertices: for fixed circuits K the
+    derivative in h has the sign of h (1 - 2t) + t + 2 K syst^2, which is linear in h, equal to
+    t at h = 0 and to 1 - t at h = 1, so positive for h and t in [0, 1]; and for fixed h it is
+    monotone in K.
+    """
+    v = binomial_variance(h) / circuits + syst * syst
+    if not v > 0:
+        return None
+    return (h - threshold) / math.sqrt(v)

@@ -31,6 +31,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from .porter_thomas import log_xeb_offsets  # noqa: F401  (kept here for its users)
+
 
 @dataclass(frozen=True)
 class FidelityFit:
@@ -67,27 +69,6 @@ def finite_dimension_factor(dimension: float | None) -> float:
         return 1.0
     d = float(dimension)
     return (d - 1.0) / (d + 1.0)
-
-
-def log_xeb_offsets(dimension: float | None) -> tuple[float, float]:
-    """E[ln x] + gamma under uniform and under ideal sampling at finite D.
-
-    With p ~ Beta(1, D - 1) (uniform) and Beta(2, D - 1) (ideal),
-    E ln p = psi(a) - psi(a + b), so the offsets are ln D - psi(D) and
-    1 + ln D - psi(D + 1) = 1 + (ln D - psi(D)) - 1/D; they tend to 0 and 1.
-    """
-    if dimension is None or math.isinf(dimension):
-        return 0.0, 1.0
-    d = float(dimension)
-    if d > 1e6:
-        # ln D - psi(D) = 1/(2D) + 1/(12 D^2) + O(D^-4): the difference of two
-        # nearly equal numbers would lose every digit in double precision.
-        g = 1.0 / (2.0 * d) + 1.0 / (12.0 * d * d)
-    else:
-        from scipy.special import digamma
-
-        g = math.log(d) - float(digamma(d))
-    return g, 1.0 + g - 1.0 / d
 
 
 def log_xeb_finite_dimension(estimate: float, dimension: float | None) -> float:

@@ -24,6 +24,16 @@ Read the other way, at a given N the smallest detectable value is the F that
 solves the same equation with v = v(F); for heavy output at power 1/2 and
 Z = 2 it is the minimum passing mean of Cross et al.
 
+Circuits.  When the N samples come from a fixed number K of random circuits,
+each circuit's own mean scatters about the ensemble's by B (the metric
+model's circuit variance), and the variance of the estimate is
+se^2 = (v - B)/N + B/K (checker.stats.porter_thomas.variance_of_mean): the
+``spread`` c = B/K is statistical (it scatters the estimate) but no number of
+samples removes it.  Then N = (v - B)/(se^2 - c) for the se that solves the
+equation above, which exists only when se^2 > c: otherwise more circuits are
+needed, at least B/se^2 of them even with unlimited samples.  As N grows the
+expected significance tends to (F - T)/sqrt(c + S^2).
+
 References
 ----------
 S.-C. Chow, J. Shao and H. Wang, "Sample Size Calculations in Clinical
@@ -88,6 +98,8 @@ class Plan:
     best_sigma: float
     reason: str
     table: tuple[PlanRow, ...]
+    spread: float = 0.0  # c = B/K: the estimate's variance that no number of samples removes
+    circuits_needed: float | None = None  # with spread: the fewest circuits that could reach it (unlimited samples)
 
 
 def _check(target_sigma: float, power: float, syst: float) -> None:
@@ -99,29 +111,30 @@ def _check(target_sigma: float, power: float, syst: float) -> None:
         raise ValueError(f"the systematic error must be zero or more, got {syst}")
 
 
-def standard_error(variance: float, count: float) -> float:
-    """sqrt(v / N)."""
-    return math.sqrt(variance / count)
+def standard_error(variance: float, count: float, spread: float = 0.0) -> float:
+    """sqrt(v / N + c), c the variance no number of samples removes (B/K)."""
+    return math.sqrt(variance / count + spread)
 
 
 def expected_sigma(value: float, threshold: float, variance: float, count: float,
-                   syst: float = 0.0) -> float:
-    """z = (F - T) / sqrt(v / N + S^2) at the true value."""
-    return (value - threshold) / math.sqrt(variance / count + syst * syst)
+                   syst: float = 0.0, spread: float = 0.0) -> float:
+    """z = (F - T) / sqrt(v / N + c + S^2) at the true value."""
+    return (value - threshold) / math.sqrt(variance / count + spread + syst * syst)
 
 
-def best_sigma(value: float, threshold: float, syst: float) -> float:
-    """The limit of the expected significance as N -> infinity: (F - T) / S,
-    +inf (or -inf) without a systematic."""
+def best_sigma(value: float, threshold: float, syst: float, spread: float = 0.0) -> float:
+    """The limit of the expected significance as N -> infinity: (F - T) / sqrt(c + S^2),
+    +inf (or -inf) without a systematic or a circuit spread c."""
     delta = value - threshold
-    if syst > 0:
-        return delta / syst
+    floor = syst * syst + spread
+    if floor > 0:
+        return delta / math.sqrt(floor)
     return math.inf if delta > 0 else (-math.inf if delta < 0 else 0.0)
 
 
 def pass_probability(value: float, threshold: float, variance: float, count: float,
-                     target_sigma: float, syst: float = 0.0) -> float:
-    """P(pass) = Phi((F - T - Z sqrt(se^2 + S^2)) / se), se = sqrt(v / N).
+                     target_sigma: float, syst: float = 0.0, spread: float = 0.0) -> float:
+    """P(pass) = Phi((F - T - Z sqrt(se^2 + S^2)) / se), se = sqrt(v / N + c).
 
     Parameters
     ----------
@@ -137,6 +150,9 @@ def pass_probability(value: float, threshold: float, variance: float, count: flo
         Z, the significance the claim must reach.
     syst : float
         S, a systematic error added in quadrature.
+    spread : float
+        c = B/K, the variance of the estimate that K circuits leave (0 when
+        the circuits are not fixed); ``variance`` is then v - B.
 
     Returns
     -------
@@ -148,20 +164,43 @@ def pass_probability(value: float, threshold: float, variance: float, count: flo
     Chow, Shao and Wang (2008), section 3.1; the systematic term is common
     practice.
     """
-    se = standard_error(variance, count)
+    se = standard_error(variance, count, spread)
     if se == 0:
         return 1.0 if value - threshold > target_sigma * syst else 0.0
     return float(ndtr((value - threshold - target_sigma * math.hypot(se, syst)) / se))
 
 
+def required_error(value: float, threshold: float, target_sigma: float, power: float = 0.8,
+                   syst: float = 0.0) -> float:
+    """The standard error se at which P(pass) equals ``power``; 0 when none does.
+
+    Solves F - T = Z sqrt(se^2 + S^2) + z_P se.  The left side minus the right
+    falls steadily with se, from F - T - Z S at se = 0 to below zero at
+    se = (F - T) / (Z + z_P), so the root is bracketed there.
+    """
+    _check(target_sigma, power, syst)
+    delta = value - threshold
+    z_power = float(ndtri(power))
+    if delta <= target_sigma * syst or delta <= 0:
+        return 0.0
+    high = delta / (target_sigma + z_power)
+    if syst == 0:
+        return high
+
+    def gap(se: float) -> float:
+        return delta - target_sigma * math.hypot(se, syst) - z_power * se
+
+    return float(brentq(gap, 0.0, high, xtol=1e-15 * high, rtol=1e-15, maxiter=200))
+
+
 def required_count(value: float, threshold: float, variance: float, target_sigma: float,
-                   power: float = 0.8, syst: float = 0.0) -> float:
+                   power: float = 0.8, syst: float = 0.0, spread: float = 0.0) -> float:
     """The (real-valued) N at which P(pass) equals ``power``; +inf when no N does.
 
-    Solves F - T = Z sqrt(se^2 + S^2) + z_P se for se, then N = v / se^2.  The
-    left side minus the right falls steadily with se, from F - T - Z S at se = 0
-    to below zero at se = (F - T) / (Z + z_P), so the root is bracketed there.
-    Without a systematic it is N = v (Z + z_P)^2 / (F - T)^2.
+    Solves F - T = Z sqrt(se^2 + S^2) + z_P se for se (:func:`required_error`),
+    then N = v / (se^2 - c); none when se^2 <= c (the circuits' own spread
+    alone exceeds it).  Without a systematic or spread it is
+    N = v (Z + z_P)^2 / (F - T)^2.
 
     Parameters
     ----------
@@ -178,27 +217,23 @@ def required_count(value: float, threshold: float, variance: float, target_sigma
     ----------
     Chow, Shao and Wang (2008), section 3.1 (the S = 0 case).
     """
-    _check(target_sigma, power, syst)
-    delta = value - threshold
-    z_power = float(ndtri(power))
-    if delta <= target_sigma * syst or delta <= 0:
+    se = required_error(value, threshold, target_sigma, power, syst)
+    if not se > 0:
+        return math.inf
+    room = se * se - spread
+    if not room > 0:
         return math.inf
     if variance <= 0:
         return 1.0
-    if syst == 0:
-        return variance * (target_sigma + z_power) ** 2 / delta ** 2
-
-    def gap(se: float) -> float:
-        return delta - target_sigma * math.hypot(se, syst) - z_power * se
-
-    high = delta / (target_sigma + z_power)
-    se = brentq(gap, 0.0, high, xtol=1e-15 * high, rtol=1e-15, maxiter=200)
-    return variance / (se * se)
+    if syst == 0 and spread == 0:
+        z_power = float(ndtri(power))
+        return variance * (target_sigma + z_power) ** 2 / (value - threshold) ** 2
+    return variance / room
 
 
 def smallest_detectable(threshold: float, variance_at: VarianceAt, count: float,
                         target_sigma: float, power: float = 0.8, syst: float = 0.0,
-                        highest: float = math.inf) -> float | None:
+                        highest: float = math.inf, spread_at: VarianceAt | None = None) -> float | None:
     """The smallest true value that reaches Z with ``power`` at N = ``count``.
 
     Solves F - T = Z sqrt(v(F)/N + S^2) + z_P sqrt(v(F)/N) for the smallest
@@ -219,6 +254,9 @@ def smallest_detectable(threshold: float, variance_at: VarianceAt, count: float,
     highest : float
         The largest value the metric can take (1 for fidelities and
         proportions); None comes back when even that does not suffice.
+    spread_at : callable, optional
+        c(F) = B(F)/K, the variance K circuits leave (``variance_at`` then
+        gives v - B).
 
     Returns
     -------
@@ -233,7 +271,8 @@ def smallest_detectable(threshold: float, variance_at: VarianceAt, count: float,
     z_power = float(ndtri(power))
 
     def gap(f: float) -> float:
-        se = math.sqrt(max(variance_at(f), 0.0) / count)
+        c = max(spread_at(f), 0.0) if spread_at is not None else 0.0
+        se = math.sqrt(max(variance_at(f), 0.0) / count + c)
         return f - threshold - target_sigma * math.hypot(se, syst) - z_power * se
 
     if math.isfinite(highest):
@@ -247,7 +286,8 @@ def smallest_detectable(threshold: float, variance_at: VarianceAt, count: float,
                 return float(brentq(gap, previous, f, xtol=1e-14, rtol=1e-15, maxiter=200))
             previous = f
         return None
-    width = target_sigma * syst + (target_sigma + z_power) * math.sqrt(max(variance_at(threshold), 0.0) / count)
+    c0 = max(spread_at(threshold), 0.0) if spread_at is not None else 0.0
+    width = target_sigma * syst + (target_sigma + z_power) * math.sqrt(max(variance_at(threshold), 0.0) / count + c0)
     high = threshold + max(width, 1e-300)
     for _ in range(200):
         if gap(high) >= 0:
@@ -263,7 +303,8 @@ def _round2(x: float) -> int:
 
 def plan_experiment(value: float, threshold: float, variance_at: VarianceAt, target_sigma: float,
                     power: float = 0.8, syst: float = 0.0, highest: float = math.inf,
-                    counts: tuple[int, ...] = ()) -> Plan:
+                    counts: tuple[int, ...] = (), spread_at: VarianceAt | None = None,
+                    circuits: float | None = None) -> Plan:
     """The count that reaches ``target_sigma`` with ``power``, the significance's
     ceiling, and a short table over a range of counts.
 
@@ -281,6 +322,11 @@ def plan_experiment(value: float, threshold: float, variance_at: VarianceAt, tar
         The metric's largest value (for the smallest detectable value).
     counts : tuple of int
         Counts to include in the table besides the generated range.
+    spread_at : callable, optional
+        c(F) = B(F)/K for samples from K fixed circuits; ``variance_at`` then
+        gives the within-circuit variance v - B.
+    circuits : float, optional
+        K, to say how many circuits would be needed when K cannot reach it.
 
     Returns
     -------
@@ -292,19 +338,29 @@ def plan_experiment(value: float, threshold: float, variance_at: VarianceAt, tar
     """
     _check(target_sigma, power, syst)
     variance = max(float(variance_at(value)), 0.0)
+    spread = max(float(spread_at(value)), 0.0) if spread_at is not None else 0.0
     delta = value - threshold
-    n_real = required_count(value, threshold, variance, target_sigma, power, syst)
+    n_real = required_count(value, threshold, variance, target_sigma, power, syst, spread)
     reachable = math.isfinite(n_real)
     count = max(1, math.ceil(n_real * (1 - 1e-12))) if reachable else None
-    ceiling = best_sigma(value, threshold, syst)
+    ceiling = best_sigma(value, threshold, syst, spread)
+    needed = None
     if reachable:
         reason = ""
         grid = {_round2(count * k) for k in (0.25, 0.5, 2.0, 4.0)} | {count}
     elif delta <= 0:
         reason = "the expected value does not exceed the threshold"
         grid = {10 ** k for k in range(2, 8)}
+    elif spread > 0 and delta > target_sigma * syst:
+        se = required_error(value, threshold, target_sigma, power, syst)
+        needed = spread * (circuits or 1.0) / (se * se)
+        reason = (f"the circuits' own spread alone gives the estimate a standard error of "
+                  f"sqrt(B/K) = {math.sqrt(spread):.3g}, above the {se:.3g} the target needs; "
+                  f"it takes at least {math.ceil(needed):,} circuits")
+        grid = {_round2(variance / (k * spread)) for k in (4.0, 2.0, 1.0, 0.5, 0.25, 0.125)} if variance > 0 \
+            else {10 ** k for k in range(2, 8)}
     else:
-        reason = (f"the systematic error caps the significance at (F - T) / S = {ceiling:.4g} sigma, "
+        reason = (f"the systematic error caps the significance at (F - T) / S = {delta / syst:.4g} sigma, "
                   f"which does not exceed the target {target_sigma:g}")
         # Where the statistical error is 4x, 2x, 1x, 1/2, 1/4 and 1/8 of the systematic.
         grid = {_round2(variance / (k * syst) ** 2) for k in (4.0, 2.0, 1.0, 0.5, 0.25, 0.125)} if variance > 0 \
@@ -314,12 +370,12 @@ def plan_experiment(value: float, threshold: float, variance_at: VarianceAt, tar
     for n in sorted(grid):
         rows.append(PlanRow(
             count=n,
-            standard_error=standard_error(variance, n),
-            expected_sigma=expected_sigma(value, threshold, variance, n, syst)
-            if variance > 0 or syst > 0 else best_sigma(value, threshold, 0.0),
-            pass_probability=pass_probability(value, threshold, variance, n, target_sigma, syst),
+            standard_error=standard_error(variance, n, spread),
+            expected_sigma=expected_sigma(value, threshold, variance, n, syst, spread)
+            if variance > 0 or syst > 0 or spread > 0 else best_sigma(value, threshold, 0.0),
+            pass_probability=pass_probability(value, threshold, variance, n, target_sigma, syst, spread),
             smallest_detectable=smallest_detectable(threshold, variance_at, n, target_sigma, power,
-                                                    syst, highest),
+                                                    syst, highest, spread_at),
         ))
     return Plan(value, threshold, target_sigma, power, syst, variance, count, reachable, ceiling,
-                reason, tuple(rows))
+                reason, tuple(rows), spread, needed)

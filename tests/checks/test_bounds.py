@@ -150,3 +150,28 @@ def test_clean_parts_pass():
     """
     (f,) = part_findings(text)
     assert f.status == "pass"
+
+
+@pytest.mark.parametrize("field, text, hint", [
+    ("estimate", "estimate: 91.3", "The estimate 91.3 lies above 1, which a proportion cannot do; "
+                                   "a proportion is at most 1: did you mean 91.3%?"),
+    ("threshold", "estimate: 0.913\nthreshold: 50", "the range of a proportion; a proportion is at most 1: "
+                                                     "did you mean 50%?"),
+])
+def test_a_percentage_without_its_sign_is_named_through_the_cli(write_claim, field, text, hint):
+    import io
+    import json
+
+    from checker.cli import run
+
+    out = io.StringIO()
+    status = run(["check", str(write_claim(f"title: t\nmetric: proportion\n{text}\n")), "--json",
+                  "--only", "bounds"], out, io.StringIO())
+    (finding,) = json.loads(out.getvalue())["findings"]
+    assert status == 1 and finding["details"]["field"] == field and hint in finding["message"]
+    # 150 cannot be a percentage, and 1.02 is more likely a value just above 1: no guess then.
+    for estimate in ("150", "1.02"):
+        out = io.StringIO()
+        run(["check", str(write_claim(f"title: t\nmetric: proportion\nestimate: {estimate}\n")), "--json",
+             "--only", "bounds"], out, io.StringIO())
+        assert "did you mean" not in out.getvalue()

@@ -3,6 +3,7 @@ worked example, the details the renderers read, and printed-precision edges."""
 
 from __future__ import annotations
 
+import math
 import subprocess
 import sys
 import textwrap
@@ -318,3 +319,34 @@ def test_parts_do_not_load_statsmodels_either():
     """)
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert out.stdout.split() == ["False", "False"]
+
+
+# --- issue 11, item 1: exact ranges over the printed box ----------------------------------------
+
+EIGHT_PARTS = """\
+title: Invented eight-part claim (issue 11 audit case)
+metric: linear-xeb
+estimate: 1.08e-3
+stat_error: 0.087e-3
+combination: {method: inverse-variance}
+parts:
+""" + "".join(f"  - {{estimate: {x}, stat_error: 0.2e-3}}\n"
+              for x in ("1.1e-3", "1.3e-3", "0.9e-3", "1.2e-3", "1.0e-3", "1.1e-3", "0.9e-3", "1.1e-3"))
+
+
+def test_eight_one_digit_errors_give_the_exact_inverse_variance_range(check_claim, write_claim):
+    from checker.checks.parts_summary import parts_summary
+    from checker.claim import read_claim
+
+    summary = parts_summary(read_claim(write_claim(EIGHT_PARTS)))
+    # 1/sqrt(sum 1/s^2) rises with every s_i, so over s_i in [0.15e-3, 0.25e-3] it runs from
+    # 0.15e-3/sqrt(8) to 0.25e-3/sqrt(8) (hand calculation; issue 11: [0.0530e-3, 0.0884e-3]).
+    low, high = summary.methods["inverse-variance"].stat_error_range
+    assert low == pytest.approx(0.15e-3 / math.sqrt(8)) and high == pytest.approx(0.25e-3 / math.sqrt(8))
+    assert (round(low, 7), round(high, 7)) == (0.0530e-3, 0.0884e-3)
+    (f,) = [f for f in check_claim(EIGHT_PARTS, only=["combination"]).findings]
+    # The printed 0.087e-3 lies inside: it agrees with the stated method, and no other method is
+    # named as reproducing it.
+    assert f.status == "pass"
+    assert f.reproduced_by is None
+    assert "equal" not in f.message

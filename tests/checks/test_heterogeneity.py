@@ -158,3 +158,33 @@ def test_parts_that_agree_pass():
 def test_skips(text, words):
     f = finding(text)
     assert f.status == "skip" and words in f.message
+
+
+# --- issue 11, item 1: Q's minimum over the printed box is a convex problem ----------------------
+
+FOUR_PARTS = """\
+title: Invented four-part claim (issue 11 audit case)
+metric: proportion
+estimate: 0.52
+stat_error: 0.01
+combination: {method: inverse-variance}
+parts:
+  - {estimate: 0.50, stat_error: 0.02}
+  - {estimate: 0.58, stat_error: 0.02}
+  - {estimate: 0.45, stat_error: 0.02}
+  - {estimate: 0.55, stat_error: 0.02}
+"""
+
+
+def test_four_scattered_parts_with_an_unscaled_error_are_flagged(check_claim):
+    from scipy.stats import chi2
+
+    (f,) = check_claim(FOUR_PARTS, only=["heterogeneity"]).findings
+    # Q = 24.5 on 3 degrees of freedom at the printed values; over the printed box its minimum is
+    # 12.96 (hand calculation: estimates 0.005 toward each other, errors at 0.025), where
+    # scipy.stats.chi2 gives p = 0.0047, below 0.01 however the digits are rounded.
+    assert f.details["Q"] == pytest.approx(24.5)
+    assert f.details["Q_low"] == pytest.approx(12.96)
+    assert chi2.sf(f.details["Q_low"], 3) < 0.01
+    assert f.status == "fail"
+    assert f.reproduced_by == {"method": "inverse-variance", "scaled": False}

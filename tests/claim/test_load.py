@@ -6,6 +6,7 @@ from __future__ import annotations
 import json
 import math
 import re
+from pathlib import Path
 
 import numpy as np
 import pytest
@@ -304,3 +305,28 @@ def test_random_structures_round_trip_through_the_loader(tree, fmt):
         # JSON keeps every value as written.  (YAML need not: PyYAML's dumper writes some
         # strings, such as "1e5" or a NEL character, in forms that read back differently.)
         assert doc.data == tree
+
+
+def test_the_c_loader_reads_every_example_like_the_pure_python_one(monkeypatch):
+    # PyYAML's libyaml loader is used where available for speed; it must give the same values,
+    # printed texts and line numbers as the reference pure-Python SafeLoader.
+    import yaml
+
+    import checker.claim.load as load
+
+    root = Path(__file__).resolve().parents[2]
+    texts = [p.read_text(encoding="utf-8") for p in sorted((root / "claims_examples").glob("*.yaml"))]
+    texts += ["title: t\nmetric: mean\nestimate: 0.30e-3\nx: &a [1, 2]\ny: *a\n",
+              "title: 'quoted: # not a comment'\nmetric: mean\nestimate: \"017\"\n",
+              "- - - [1]\n", "a: {b: {c: [1, {d: 2}]}}\n", 'title: "\\ud800 lone surrogate"\n',
+              "a: [1, 2\n", "a: 'unterminated\n"]
+    for text in texts:
+        outcomes = []
+        for loader in (yaml.SafeLoader, getattr(yaml, "CSafeLoader", yaml.SafeLoader)):
+            monkeypatch.setattr(load, "SAFE_LOADER", loader)
+            try:
+                doc = load.parse_text(text, "c.yaml", "yaml")
+                outcomes.append((doc.data, dict(doc.texts), dict(doc.lines)))
+            except Exception as exc:  # noqa: BLE001 - the two loaders must refuse alike too
+                outcomes.append((type(exc).__name__, str(exc)))
+        assert outcomes[0] == outcomes[1], text

@@ -14,6 +14,7 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from checker.claim import read_claim
+from checker.claim.load import parse_text
 from checker.claim.model import DEFAULT_TOLERANCE, Reported
 from checker.errors import ClaimcheckError, ClaimSchemaError
 
@@ -231,3 +232,73 @@ def test_random_structures_dumped_to_yaml_and_json(write_claim, data, fmt):
         read_claim(write_claim(text, f"random.{fmt}"))
     except ClaimcheckError as exc:
         assert "\n" not in str(exc)
+
+
+# The kinds of claim of the issue "More kinds of claims": which may leave out the estimate,
+# what a counting experiment needs, the baseline and the comparison.
+def _built(text: str):
+    from checker.claim import claim_from_document
+    return claim_from_document(parse_text(text, "claim.yaml", "yaml"))
+
+
+def _refused(text: str) -> str:
+    from checker.claim import claim_from_document
+    with pytest.raises(ClaimSchemaError) as err:
+        claim_from_document(parse_text(text, "claim.yaml", "yaml"))
+    assert "\n" not in str(err.value)
+    return str(err.value)
+
+
+def test_a_plain_claim_still_needs_its_estimate():
+    assert _refused("title: t\nmetric: mean\n") == (
+        "claim.yaml: estimate (line 1): estimate is missing; give the headline value as printed; only a "
+        "counting experiment (metric counts), a claim that prints only its significances (a local sigma or "
+        "p and a global sigma), a comparison that prints its difference, or a table of rates (counts_table) "
+        "may leave it out")
+
+
+def test_kinds_that_may_leave_out_the_estimate():
+    assert _built("title: t\nmetric: counts\nobserved: 47\nbackground: 30.2\n").estimate is None
+    assert _built("title: t\nmetric: mean\nsignificance: {sigma: 3.9, global_sigma: 2.3}\n").estimate is None
+    assert _built("title: t\nmetric: proportion\ncomparison: {difference: 0.023}\n").estimate is None
+
+
+def test_counting_experiment_fields():
+    claim = _built("title: t\nmetric: counts\nobserved: 0\nbackground: 30.2\nbackground_error: 3.1\n")
+    assert claim.observed.value == 0 and claim.observed.exact
+    assert claim.background.bounds == pytest.approx((30.15, 30.25))
+    assert claim.background_error.text == "3.1"
+
+
+@pytest.mark.parametrize("text, message", [
+    ("title: t\nmetric: counts\nobserved: 4\n",
+     "claim.yaml: background (line 1): a counting experiment (metric counts) needs background; give observed "
+     "(events seen) and background (events expected without a signal)"),
+    ("title: t\nmetric: counts\nobserved: 4.5\nbackground: 1\n",
+     "claim.yaml: observed (line 3): observed must be a whole number of at least 0, got 4.5; counts are whole "
+     "numbers such as 0, 47 or 1200"),
+    ("title: t\nmetric: counts\nobserved: 4\nbackground: 0\n",
+     "claim.yaml: background (line 4): background must be above 0, got 0; the expected number of background "
+     "events, such as 30.2"),
+    ("title: t\nmetric: mean\nestimate: 1\nobserved: 4\n",
+     "claim.yaml: observed (line 4): observed belongs to a counting experiment, but metric is mean; write "
+     "metric: counts, or leave out observed, background and background_error"),
+    ("title: t\nmetric: proportion\nestimate: 0.9\ncomparison: {discordant: [3, -1]}\n",
+     "claim.yaml: comparison.discordant.1 (line 4): discordant entry 1 must be a whole number of at least 0, "
+     "got -1; counts are whole numbers such as 0, 47 or 1200"),
+    ("title: t\nmetric: proportion\nestimate: 0.9\ncomparison: {discordant: [3]}\n",
+     "claim.yaml: comparison.discordant (line 4): discordant holds 1 entries, not 2; write [items only ours "
+     "got right, items only the baseline got right]"),
+])
+def test_kind_inputs_are_refused_with_one_line(text, message):
+    assert _refused(text) == message
+
+
+def test_baseline_and_comparison():
+    claim = _built("title: t\nmetric: proportion\nestimate: 91.3%\nsamples: 1200\n"
+                   "baseline: {label: previous best, estimate: 89.0%, samples: 1200}\n"
+                   "comparison: {paired: true, discordant: [58, 30], sigma: 2.9, sided: two}\n")
+    assert claim.baseline.label == "previous best" and claim.baseline.estimate.value == pytest.approx(0.89)
+    c = claim.comparison
+    assert c.paired and [d.value for d in c.discordant] == [58, 30] and c.discordant[0].exact
+    assert c.sided == "two" and c.test is None and c.stated == frozenset({"paired", "sided"})

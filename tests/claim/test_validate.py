@@ -44,11 +44,17 @@ def test_the_vocabulary_of_design_md_is_all_in_the_schema():
     assert set(props) - added == {"$schema", "title", "source", "metric", "qubits", "estimate", "stat_error",
                           "syst_error", "interval", "samples", "circuits", "sd", "threshold", "significance",
                           "trials", "parts", "combination", "extrapolation", "error_budget", "integer_data",
-                          "items", "tolerance"}
+                          "items", "tolerance",
+                          # DESIGN.md, "Turn-2 additions" (the issue "More kinds of claims")
+                          "baseline", "comparison", "observed", "background", "background_error"}
+    assert set(props["baseline"]["properties"]) == {"label", "estimate", "stat_error", "samples"}
+    assert set(props["comparison"]["properties"]) == {"paired", "discordant", "difference", "difference_error",
+                                                       "sigma", "p_value", "sided", "test"}
     assert set(props["significance"]["properties"]) == {
         "sigma", "p_value", "sided", "systematics", "error_at", "required_sigma", "global_sigma",
         "upcrossings", "upcrossing_sigma"}
-    assert claim_schema()["required"] == ["title", "metric", "estimate"]
+    # estimate is optional for the kinds that print none; build_claim enforces the rest
+    assert claim_schema()["required"] == ["title", "metric"]
 
 
 def test_a_claim_may_carry_its_schema():
@@ -96,7 +102,7 @@ def test_json_true_is_quoted_as_json_writes_it():
 def test_unknown_field_names_itself_and_suggests_the_spelling():
     assert refusal(BASE + "stat_eror: 0.01\n").startswith(
         "claim.yaml: stat_eror (line 4): unknown field 'stat_eror'; did you mean 'stat_error'? "
-        "allowed fields of a claim: $schema, circuits,")
+        "allowed fields of a claim: $schema, background, background_error, baseline, circuits,")
 
 
 def test_a_field_in_the_wrong_section_says_where_it_belongs():
@@ -107,9 +113,9 @@ def test_a_field_in_the_wrong_section_says_where_it_belongs():
 
 
 def test_missing_required_fields():
-    assert refusal("title: t\nmetric: mean\n") == (
-        "claim.yaml: (top level) (line 1): the required field 'estimate' is missing; "
-        "a claim needs title, metric, estimate")
+    assert refusal("title: t\n") == (
+        "claim.yaml: (top level) (line 1): the required field 'metric' is missing; "
+        "a claim needs title, metric")
     assert refusal(BASE + "parts:\n  - label: a\n") == (
         "claim.yaml: parts.0 (line 5): the required field 'estimate' is missing; parts.0 needs estimate")
     assert "interval (line 4): the required field 'high' is missing" in refusal(BASE + "interval: {low: 0.8}\n")
@@ -117,7 +123,7 @@ def test_missing_required_fields():
 
 @pytest.mark.parametrize("field_text, words", [
     ("metric: xeb", "metric (line 2): metric is 'xeb'; did you mean 'linear-xeb' or 'log-xeb'? allowed: linear-xeb | log-xeb | heavy-output | "
-                    "proportion | mean"),
+                    "proportion | mean | counts"),
     ("significance: {sided: both}", "significance.sided (line 4): sided is 'both'; allowed: one | two"),
     ("significance: {systematics: added}", "allowed: none | quadrature | marginalized"),
     ("significance: {error_at: null_value}", "allowed: estimate | threshold"),

@@ -2,6 +2,7 @@
 
 import io
 import json
+import re
 from pathlib import Path
 
 import pandas as pd
@@ -144,3 +145,23 @@ def test_folder_summary_counts_files_and_a_missing_out_folder_stops_first(tmp_pa
     assert stderr.startswith(f"{folder / 'b.json'} (line 1): is not valid JSON")
     status, stdout, stderr = claimcheck("batch", folder, "--out", tmp_path / "nowhere" / "out.csv")
     assert status == 2 and stdout == "" and "its folder does not exist" in stderr
+
+
+def test_the_summary_agrees_in_number(tmp_path):
+    status, out, _ = claimcheck("batch", table(tmp_path, GOOD))
+    assert status == 0
+    assert ("required sigma: 1 claim states one and has a recomputed significance; 1 clears it as "
+            "recomputed, 1 after Holm and 1 after Benjamini-Hochberg adjustment across 1 recomputed p-value") in out
+    claimcheck("batch", table(tmp_path, GOOD, name="u.csv"), "--out", tmp_path / "one.html")
+    page = (tmp_path / "one.html").read_text()
+    assert "Of 1 claim that states a required sigma, 1 clears it as recomputed" in page
+    status, out, _ = claimcheck("batch", table(tmp_path, GOOD, GOOD, name="two.csv"))
+    assert "2 claims state one and have a recomputed significance; 2 clear it" in out
+
+
+def test_the_html_table_scrolls_inside_its_own_box(tmp_path):
+    claimcheck("batch", EXAMPLE, "--out", tmp_path / "out.html")
+    page = (tmp_path / "out.html").read_text()
+    box = page.index('<div class="wide"')
+    assert box < page.index("<table>") < page.index("</table>") < page.index("</div>", box)
+    assert re.search(r"div\.wide \{[^}]*overflow-x: auto", page)

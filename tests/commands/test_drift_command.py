@@ -66,3 +66,18 @@ def test_bad_window(tmp_path):
     assert status == 2 and "is not a number" in err
     status, _, err = _run("drift", str(tmp_path / "none.csv"))
     assert status == 2 and "no such file" in err
+
+
+def test_date_times_name_their_unit_in_the_window_and_the_slope(tmp_path):
+    rows = [f"2026-03-0{1 + i // 24}T{i % 24:02d}:00,{1.0 + 0.001 * (i % 3)},0.01" for i in range(30)]
+    path = _series(tmp_path / "dt.csv", rows=rows)
+    status, out, _ = _run("drift", path, "--window", "2026-03-01T02:00", "2026-03-01T10:00")
+    first, _, slope, *_ = out.splitlines()
+    assert status == 0
+    assert first.endswith("window 2 to 10 hours since the first point (2026-03-01T00:00:00) (9 points)")
+    assert " per hour; " in slope and "per unit time" not in out
+    status, out, _ = _run("drift", path, "--json")
+    assert json.loads(out)["time_origin"] == "2026-03-01T00:00:00"
+    # Plain numbers keep the time column's own unit, which claimcheck does not know.
+    status, out, _ = _run("drift", _series(tmp_path / "n.csv"))
+    assert "per unit time" in out and "hours" not in out

@@ -79,12 +79,14 @@ def test_qubits_enter_the_linear_xeb_variance():
     (["--metric", "proportion", "--fidelity", "0.6", "--sigma", "3"], "--threshold: is needed for proportion"),
     (["--metric", "mean", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3"], "--sd: is needed"),
     (["--metric", "linear-xeb", "--fidelity", "0.1", "--threshold", "0", "--sigma", "3", "--circuits", "50"],
-     "--circuits: does not apply: linear-xeb counts samples"),
+     "--circuits: needs --qubits"),
+    (["--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3", "--circuits", "50"],
+     "--circuits: does not apply: proportion counts samples"),
     (["--metric", "proportion", "--fidelity", "1.2", "--threshold", "0.5", "--sigma", "3"], "lies outside [0, 1]"),
     (["--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3", "--power", "0.3"],
      "argument --power: must lie in [0.5, 1)"),
     (["--metric", "proportion", "--fidelity", "nan", "--threshold", "0.5", "--sigma", "3"],
-     "argument --fidelity: must be a finite number"),
+     "argument --estimate/--fidelity: must be a finite number"),
     (["--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3", "--samples", "2.5"],
      "argument --samples: must be a whole number"),
 ])
@@ -92,3 +94,20 @@ def test_bad_options_are_one_line_and_exit_2(argv, message):
     status, out, err = claimcheck("plan", *argv)
     assert status == 2 and out == ""
     assert err.count("\n") == 1 and message in err
+
+
+def test_option_names_from_the_claim_vocabulary_percentages_and_old_names():
+    # The same plan three ways: the claim's names with percentages, the first names, and a
+    # negative threshold after its option.  N = p(1-p)(z_Z + z_P)^2/(p - T)^2 is the textbook
+    # count (Chow, Shao and Wang, "Sample Size Calculations in Clinical Research", 2008, one-sample
+    # proportion); plan's own value is only compared with itself here.
+    new = plan_json("--metric", "proportion", "--estimate", "60%", "--threshold", "50%",
+                    "--required-sigma", "3", "--power", "80%", "--syst-error", "0.5%")
+    old = plan_json("--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3",
+                    "--power", "0.8", "--syst", "0.005")
+    assert new == old and new["power"] == 0.8 and new["threshold"] == 0.5
+    shifted = plan_json("--metric", "mean", "--estimate", "-0.4", "--threshold", "-0.5", "--required-sigma", "3",
+                        "--sd", "0.3")
+    assert shifted["threshold"] == -0.5 and shifted["reachable"]
+    # A fraction reads exactly, as in claim files.
+    assert plan_json("--metric", "heavy-output", "--estimate", "0.75", "--threshold", "2/3")["threshold"] == 2 / 3

@@ -137,3 +137,15 @@ def test_input_files_are_not_modified(data, tmp_path):
     before = copy.read_bytes()
     _run("raw", str(copy), "--metric", "linear-xeb", "--qubits", "10", "--bootstrap", "10")
     assert copy.read_bytes() == before
+
+
+def test_also_test_at_names_what_the_value_does_and_the_old_name_still_works(data):
+    _, path = data
+    results = []
+    for option, value in (("--also-test-at", "0.3"), ("--threshold", "0.3"), ("--also-test-at", "30%")):
+        status, out, _ = _run("raw", path, "--metric", "linear-xeb", "--qubits", "10", "--bootstrap", "0",
+                              option, value, "--json")
+        fits = {g["at"]: g["fidelity"] for g in json.loads(out)["goodness_of_fit"]}
+        assert status == 0 and fits["threshold"] == pytest.approx(0.3)
+        results.append(out)
+    assert results[0] == results[1] == results[2]

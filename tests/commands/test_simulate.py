@@ -72,3 +72,10 @@ def test_bad_output_paths_exit_2(tmp_path):
     status, _, err = _run(*BASE, "--out", str(tmp_path / "missing" / "x.csv"))
     assert status == 2 and "its folder does not exist" in err
     assert os.listdir(tmp_path) == []
+
+
+def test_circuits_and_samples_have_defaults(tmp_path):
+    target = tmp_path / "sim.csv"
+    status, out, _ = _run("simulate", "--qubits", "6", "--fidelity", "40%", "--out", str(target))
+    assert status == 0 and "wrote 10,000 simulated samples (10 circuits x 1000" in out
+    assert "fidelity 0.4," in out

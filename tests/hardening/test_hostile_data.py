@@ -200,17 +200,17 @@ def test_sizes_beyond_the_limits_are_one_line(tmp_path):
     assert not out.exists()
 
 
-def test_the_cluster_bootstrap_is_bounded_by_circuits_times_replicates(tmp_path, monkeypatch):
+def test_the_cluster_bootstrap_cost_does_not_grow_with_the_circuits(tmp_path):
+    # Beyond checker.stats.bootstrap.DEFAULT_GROUPS circuits are grouped by value, so the cost per
+    # replicate is bounded whatever the number of circuits (it was circuits x replicates).
     from checker.cli import run
-    from checker.raw import analysis
 
-    monkeypatch.setattr(analysis, "MAX_BOOTSTRAP_DRAWS", 1000)  # the real bound is 1e9 draws
     path = tmp_path / "d.csv"
-    path.write_bytes(csv_rows(500, circuits=20))
-    err = io.StringIO()
-    status = run(["raw", str(path), "--metric", "linear-xeb", "--qubits", "12", "--bootstrap", "100"],
-                 io.StringIO(), err)
-    assert status == 2 and "give --bootstrap 50 or fewer" in err.getvalue(), err.getvalue()
+    path.write_bytes(csv_rows(6000, circuits=3000))
+    out = io.StringIO()
+    status = run(["raw", str(path), "--metric", "linear-xeb", "--qubits", "12", "--bootstrap", "200", "--json"],
+                 out, io.StringIO())
+    assert status == 0 and '"resampling": "circuits, grouped"' in out.getvalue()
 
 
 # --- drift series --------------------------------------------------------------------------

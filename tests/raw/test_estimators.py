@@ -163,3 +163,42 @@ def test_subsample_of_a_short_file_is_the_whole_file():
         acc = Accumulator(10, sample_size=1000, total_rows=total, rng=np.random.default_rng(7))
         sample = _feed(acc, p, chunk=7).result([]).sample
         assert np.allclose(np.sort(sample), np.sort(p * 1024))
+
+
+def test_model_error_over_circuits_matches_the_scatter_of_simulated_estimates():
+    # 300 datasets of 5 circuits x 2,000 samples at 8 qubits, F = 0.5 (the project's simulator):
+    # the pooled model error holds the circuit term B/K and so matches the estimates' scatter;
+    # the per-sample data error does not.  300 runs give the scatter a relative standard error
+    # of about 4%; the 12% band is 3 of those (about 997 seeds in 1000; the seed is fixed).
+    rng = np.random.default_rng(77)
+    est, model, data, ratio = [], [], [], []
+    for _ in range(300):
+        d = simulate_dataset(8, 5, 2000, 0.5, rng)
+        acc = Accumulator(8, bins=False, sample_size=0)
+        acc.add(Chunk(0, d.probability, d.circuit, None))
+        e = combined_estimates(acc.result(list(range(5))))["linear-xeb"]
+        est.append(e.estimate)
+        model.append(e.stat_error)
+        data.append(e.stat_error_data)
+        ratio.append(e.ratio)
+    scatter = np.std(est, ddof=1)
+    assert scatter == pytest.approx(np.mean(model), rel=0.12)
+    assert scatter > 1.3 * np.mean(data)
+    # The ratio compares the between-circuit error with the model error: about 1 on average
+    # (the between-circuit error of 5 circuits is itself uncertain by about 35%).
+    assert np.mean(ratio) == pytest.approx(1.0, abs=0.1)
+
+
+def test_without_a_circuit_column_the_model_error_is_the_per_sample_one():
+    rng = np.random.default_rng(78)
+    d = simulate_dataset(8, 5, 2000, 0.5, rng)
+    acc = Accumulator(8, bins=False, sample_size=0)
+    acc.add(Chunk(0, d.probability, None, None))
+    sums = acc.result([])
+    unknown = combined_estimates(sums, circuits_known=False)["linear-xeb"]
+    one = combined_estimates(sums)["linear-xeb"]  # a circuit column with a single circuit
+    assert unknown.stat_error < one.stat_error
+    from checker.metrics import METRICS, ModelInputs
+
+    assert unknown.stat_error == METRICS["linear-xeb"].standard_error(unknown.estimate, 10_000,
+                                                                       ModelInputs(dimension=256.0))

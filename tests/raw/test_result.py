@@ -35,7 +35,7 @@ def test_contract_keys(result):
     assert len(d["circuits"]) == 4 and all(CIRCUIT <= set(c) for c in d["circuits"])
     assert {g["at"] for g in d["goodness_of_fit"]} == {"fitted", "threshold", "zero"}
     assert all(FIT <= set(g) for g in d["goodness_of_fit"])
-    assert BOOT <= set(d["bootstrap"]) and d["bootstrap"]["method"] == "percentile"
+    assert BOOT <= set(d["bootstrap"]) and d["bootstrap"]["method"] == "t over circuits"  # 4 circuits
     assert set(d["bootstrap"]["basic"]) == {"low", "high"}
     assert d["combined"]["estimate"] == pytest.approx(result.combined["log-xeb"].estimate)
 

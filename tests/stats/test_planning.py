@@ -160,3 +160,44 @@ def test_simulated_xeb_experiment_with_systematic_passes_as_planned():
     se = x.std(axis=1, ddof=1) / math.sqrt(n)
     rate = np.mean((estimate - 0.1) / np.sqrt(se ** 2 + 0.01 ** 2) >= 3.0)
     assert rate == pytest.approx(0.8, abs=0.04)
+
+
+def test_simulated_xeb_experiment_over_few_circuits_passes_as_planned():
+    # The project's simulator: K = 5 circuits at 8 qubits, whose own means scatter by
+    # B = 4F^2/D each (porter_thomas).  Plan F 0.3 against 0.2 at 3 sigma, power 0.8, counting the
+    # circuits; each simulated experiment prints mean(x) - 1 and its honest error at the truth.
+    # Expected pass rate 0.80; 1500 seeded runs have sd 0.010 and the test accepts 0.76-0.84
+    # (4 sd, missed by a correct plan in about 1e-4 of seeds).
+    from checker.metrics import METRICS, ModelInputs
+    from checker.raw.simulate_circuits import simulate_dataset
+
+    model, k, d = METRICS["linear-xeb"], 5, 256.0
+    inputs = ModelInputs(dimension=d)
+    plan = plan_experiment(0.3, 0.2, lambda f: model.within_variance(f, inputs), 3.0, 0.8, highest=1.0,
+                           spread_at=lambda f: model.circuit_variance(f, inputs) / k, circuits=k)
+    assert plan.reachable and plan.spread > 0
+    naive = plan_experiment(0.3, 0.2, lambda f: model.variance(f, inputs), 3.0, 0.8, highest=1.0)
+    assert plan.count > 1.3 * naive.count  # the circuits' spread costs samples
+    per_circuit = math.ceil(plan.count / k)
+    se = math.sqrt(plan.variance / (k * per_circuit) + plan.spread)
+    rng = np.random.default_rng(12)
+    runs = 1500
+    hits = 0
+    for _ in range(runs):
+        data = simulate_dataset(8, k, per_circuit, 0.3, rng)
+        estimate = (data.probability * d).mean() - 1.0
+        hits += (estimate - 0.2) / se >= 3.0
+    # The plan's value is the printed estimate's expectation: pass 0.3 as the estimate itself.
+    assert hits / runs == pytest.approx(0.8, abs=0.06)
+
+
+def test_too_few_circuits_cannot_reach_the_target():
+    from checker.metrics import METRICS, ModelInputs
+
+    model, inputs = METRICS["linear-xeb"], ModelInputs(dimension=1024.0)
+    plan = plan_experiment(0.5, 0.48, lambda f: model.within_variance(f, inputs), 3.0, 0.8, highest=1.0,
+                           spread_at=lambda f: model.circuit_variance(f, inputs) / 10, circuits=10)
+    assert not plan.reachable and plan.count is None
+    assert "circuits' own spread" in plan.reason
+    # At the needed error se, B / se^2 circuits: 36 (se = 0.02 / (3 + 0.8416) = 0.00521).
+    assert math.ceil(plan.circuits_needed) == 36

@@ -115,12 +115,13 @@ def test_design_examples_with_the_default_tolerance():
 
 
 def test_tolerance_widens_by_a_fraction_of_the_printed_magnitude():
-    # Binary-exact numbers so that the edge is exact: "2" is [1.5, 2.5]; 0.25 x 2.5 = 0.625.
+    # Binary-exact numbers so that the edge is exact: "2" is [1.5, 2.5]; the slack is 0.25 times the
+    # printed value 2 (README, "Printed precision"), 0.5, not 0.25 x 2.5 (the interval's upper end).
     two = parse_printed("2").bounds
-    assert agrees(two, (3.125, 4.0), 0.25)
-    assert not agrees(two, (math.nextafter(3.125, math.inf), 4.0), 0.25)
-    assert agrees(two, (-1.0, 0.875), 0.25)
-    assert not agrees(two, (-1.0, math.nextafter(0.875, -math.inf)), 0.25)
+    assert agrees(two, (3.0, 4.0), 0.25)
+    assert not agrees(two, (math.nextafter(3.0, math.inf), 4.0), 0.25)
+    assert agrees(two, (-1.0, 1.0), 0.25)
+    assert not agrees(two, (-1.0, math.nextafter(1.0, -math.inf)), 0.25)
 
 
 def test_log_agreement_on_the_edge():
@@ -148,7 +149,8 @@ def test_gap_and_relative_gap():
     assert gap((1.0, 2.0), (1.5, 3.0)) == 0.0
     assert gap((1.0, 2.0), (3.0, 4.0)) == 1.0
     assert gap((3.0, 4.0), (1.0, 2.0)) == 1.0
-    assert relative_gap((1.0, 2.0), (3.0, 4.0)) == 0.5
+    # Relative to the printed value, the interval's midpoint 1.5.
+    assert relative_gap((1.0, 2.0), (3.0, 4.0)) == pytest.approx(1 / 1.5)
     assert relative_gap((0.0, 0.0), (1.0, 1.0)) == math.inf
 
 

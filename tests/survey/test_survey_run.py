@@ -138,7 +138,7 @@ def test_a_bad_row_is_reported_and_the_batch_goes_on(tmp_path):
     result = run_batch(_table(tmp_path, [GOOD, BAD, GOOD, FLAWED]))
     assert list(result.frame["verdict"]) == ["consistent", "unusable", "consistent", "inconsistent"]
     assert result.problems == (f"{tmp_path / 't.csv'} row 2: metric (line 3): metric is 'fidelity'; "
-                               "allowed: linear-xeb | log-xeb | heavy-output | proportion | mean",)
+                               "allowed: linear-xeb | log-xeb | heavy-output | proportion | mean | counts",)
     assert result.exit_status == 1
 
 

@@ -1,0 +1,311 @@
+"""Ranges of every combination of parts over the box of the parts' printed
+intervals: each part's estimate x_i in [a_i, b_i], its error s_i in
+[c_i, d_i] and its samples n_i in [l_i, u_i].
+
+Which method gives which range (``METHOD_OF`` names it for each quantity):
+
+- equal-weight mean: linear in x, exact.  Its error sqrt(sum s^2)/K rises
+  with every s_i: exact.
+- samples-weighted mean: a weighted mean with weights n, exact
+  (``ranges.weighted_mean_range``).  Its error sqrt(sum n^2 s^2)/sum n rises
+  with every s_i; with exact samples that is all (exact), with samples printed
+  to a precision the samples are searched (``ranges.bounded_range``).
+- inverse-variance mean: a weighted mean with weights 1/s^2 in
+  [1/d^2, 1/c^2], exact.  Its error 1/sqrt(sum 1/s^2) rises with every s_i:
+  exact.
+- Cochran's Q and the parts' scatter: ``ranges.weighted_ss_range`` (the
+  minimum a convex problem, the maximum on a vertex).
+- random-effects means (DerSimonian-Laird, Paule-Mandel) and every error
+  scaled by the Birge ratio: no closed form; bounded local search
+  (L-BFGS-B) from the box's centre, from the points where Q is smallest and
+  largest and, for boxes of up to ``ALL_VERTICES`` free inputs, from the best
+  of all vertices.  These are the only approximate ranges.
+
+When a part's error comes from the metric model (from its estimate and its
+count) rather than from print, the box gives that error its own interval, the
+model's minimum and maximum over the estimate's interval and the count's: the
+error is then treated as independent of the estimate, a relaxation that can
+only widen the range (by the change of the model error across one printed
+digit of the estimate).
+
+References
+----------
+See ``checker.stats.ranges``; the combinations themselves are those of
+``checker.stats.combine``.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from .combine import tau2_paule_mandel
+from .ranges import Range, bounded_range, weighted_mean_range, weighted_ss_range
+
+ALL_VERTICES = 12  # free inputs up to which every vertex is a starting candidate
+PART_VERTICES = 10  # parts up to which every vertex of the estimates (and of the errors) is one
+
+METHOD_OF = {
+    ("equal", "estimate"): "exact: linear in the estimates",
+    ("equal", "stat_error"): "exact: rises with every part error",
+    ("samples", "estimate"): "exact: weighted-mean thresholds",
+    ("samples", "stat_error"): "exact with exact samples (rises with every part error); "
+                               "bounded local search over printed samples",
+    ("inverse-variance", "estimate"): "exact: weighted-mean thresholds",
+    ("inverse-variance", "stat_error"): "exact: rises with every part error",
+    ("random-effects", "estimate"): "bounded local search",
+    ("random-effects", "stat_error"): "bounded local search",
+    ("paule-mandel", "estimate"): "bounded local search",
+    ("paule-mandel", "stat_error"): "bounded local search",
+    ("any", "scaled_error"): "bounded local search",
+    ("q", ""): "exact: convex minimum, vertex maximum",
+    ("spread", ""): "exact: convex minimum, vertex maximum",
+    ("average", ""): "exact: rises with every part error",
+    ("quadrature", ""): "exact: rises with every part error",
+}
+
+
+@dataclass(frozen=True)
+class PartsBox:
+    """The box of the parts' inputs: value and interval of each estimate, error
+    (None when not every part has one) and samples (None likewise)."""
+
+    x: np.ndarray
+    x_low: np.ndarray
+    x_high: np.ndarray
+    s: np.ndarray | None = None
+    s_low: np.ndarray | None = None
+    s_high: np.ndarray | None = None
+    n: np.ndarray | None = None
+    n_low: np.ndarray | None = None
+    n_high: np.ndarray | None = None
+
+    @property
+    def count(self) -> int:
+        return int(self.x.size)
+
+
+def _pm_tau2(x: np.ndarray, v: np.ndarray) -> np.ndarray:
+    """Paule-Mandel tau^2 for each row, by bisection on all rows at once: the
+    generalised Q falls as tau^2 grows (see ``combine.tau2_paule_mandel``)."""
+    k = x.shape[-1]
+
+    def excess(t2):
+        w = 1.0 / (v + t2[:, None])
+        mu = (w * x).sum(-1) / w.sum(-1)
+        return (w * (x - mu[:, None]) ** 2).sum(-1) - (k - 1)
+
+    lo = np.zeros(x.shape[0])
+    hi = ((x - x.mean(-1, keepdims=True)) ** 2).sum(-1) / (k - 1)
+    need = excess(lo) > 0
+    if not need.any():
+        return lo
+    for _ in range(80):  # 2**-80 of the bracket: far below any printed digit
+        mid = 0.5 * (lo + hi)
+        up = excess(mid) > 0
+        lo = np.where(up, mid, lo)
+        hi = np.where(up, hi, mid)
+    return np.where(need, 0.5 * (lo + hi), 0.0)
+
+
+def evaluate(method: str, quantity: str, x: np.ndarray, s: np.ndarray | None,
+             n: np.ndarray | None) -> np.ndarray:
+    """``quantity`` ("estimate", "stat_error", "scaled_error") of ``method`` at
+    each row of x (and s, n): the formulas of ``stats.combine``, vectorised."""
+    shape = np.broadcast_shapes(*[np.atleast_2d(a).shape for a in (x, s, n) if a is not None])
+    x = np.broadcast_to(np.atleast_2d(x), shape)
+    k = x.shape[-1]
+    v = None if s is None else np.broadcast_to(np.atleast_2d(s), shape) ** 2
+    tau2 = np.zeros(x.shape[0])
+    if method == "equal":
+        w = np.ones_like(x)
+    elif method == "samples":
+        w = np.broadcast_to(np.atleast_2d(n), shape)
+    elif method == "inverse-variance":
+        w = 1.0 / v
+    elif method == "random-effects":
+        wf = 1.0 / v
+        wsum = wf.sum(-1)
+        mu = (wf * x).sum(-1) / wsum
+        q = (wf * (x - mu[:, None]) ** 2).sum(-1)
+        denom = wsum - (wf * wf).sum(-1) / wsum
+        with np.errstate(divide="ignore", invalid="ignore"):
+            tau2 = np.where(denom > 0, np.maximum(0.0, (q - (k - 1)) / denom), 0.0)
+        w = 1.0 / (v + tau2[:, None])
+    elif method == "paule-mandel":
+        if x.shape[0] == 1:  # one point (a local search's step): Brent's method, as combine does
+            tau2 = np.array([tau2_paule_mandel(x[0], np.sqrt(v[0]))])
+        else:
+            tau2 = _pm_tau2(x, v)
+        w = 1.0 / (v + tau2[:, None])
+    else:
+        raise ValueError(f"unknown method {method!r}")
+    p = w / w.sum(-1, keepdims=True)
+    if quantity == "estimate":
+        return (p * x).sum(-1)
+    err = np.sqrt((p * p * (v + tau2[:, None])).sum(-1))
+    if quantity == "stat_error":
+        return err
+    wf = 1.0 / v
+    mu = (wf * x).sum(-1) / wf.sum(-1)
+    q = (wf * (x - mu[:, None]) ** 2).sum(-1)
+    return err * np.maximum(1.0, np.sqrt(q / (k - 1)))
+
+
+class CombinationRanges:
+    """Ranges of the combinations of one box of parts, each computed when first
+    asked for (the searched ones cost far more than the closed forms)."""
+
+    def __init__(self, box: PartsBox):
+        self.box = box
+        self._cache: dict = {}
+
+    def _cached(self, key, compute):
+        if key not in self._cache:
+            self._cache[key] = compute()
+        return self._cache[key]
+
+    # --- closed forms ---------------------------------------------------------------------------
+    def q(self) -> Range | None:
+        """Cochran's Q over the box."""
+        b = self.box
+        if b.s is None:
+            return None
+        return self._cached("q", lambda: weighted_ss_range(b.x_low, b.x_high, 1.0 / b.s_high ** 2,
+                                                           1.0 / b.s_low ** 2))
+
+    def spread(self) -> Range:
+        """sd(x)/sqrt(K), the error of the plain mean from the parts' scatter."""
+        b = self.box
+        k = b.count
+
+        def compute():
+            ones = np.ones(k)
+            lo, hi = weighted_ss_range(b.x_low, b.x_high, ones, ones)
+            return (math.sqrt(lo / (k * (k - 1))), math.sqrt(hi / (k * (k - 1))))
+
+        return self._cached("spread", compute)
+
+    def average(self) -> Range | None:
+        b = self.box
+        return None if b.s is None else (float(b.s_low.mean()), float(b.s_high.mean()))
+
+    def quadrature(self) -> Range | None:
+        b = self.box
+        return None if b.s is None else (float(np.sqrt(np.sum(b.s_low ** 2))),
+                                         float(np.sqrt(np.sum(b.s_high ** 2))))
+
+    def range(self, method: str, quantity: str) -> Range | None:
+        """The range of ``quantity`` of ``method``; None when the method lacks an
+        input (errors, samples)."""
+        b = self.box
+        if b.s is None and (quantity != "estimate" or method not in ("equal", "samples")):
+            return None
+        if method == "samples" and b.n is None:
+            return None
+        return self._cached((method, quantity), lambda: self._compute(method, quantity))
+
+    def _compute(self, method: str, quantity: str) -> Range:
+        b = self.box
+        k = b.count
+        if quantity == "estimate" and method == "equal":
+            return (float(b.x_low.mean()), float(b.x_high.mean()))
+        if quantity == "estimate" and method == "samples":
+            return weighted_mean_range(b.x_low, b.x_high, b.n_low, b.n_high)
+        if quantity == "estimate" and method == "inverse-variance":
+            return weighted_mean_range(b.x_low, b.x_high, 1.0 / b.s_high ** 2, 1.0 / b.s_low ** 2)
+        if quantity == "stat_error" and method == "equal":
+            return (float(np.sqrt(np.sum(b.s_low ** 2)) / k), float(np.sqrt(np.sum(b.s_high ** 2)) / k))
+        if quantity == "stat_error" and method == "inverse-variance":
+            return (float(1.0 / np.sqrt(np.sum(1.0 / b.s_low ** 2))),
+                    float(1.0 / np.sqrt(np.sum(1.0 / b.s_high ** 2))))
+        if quantity == "stat_error" and method == "samples":
+            if np.array_equal(b.n_low, b.n_high):
+                p = b.n / b.n.sum()
+                return (float(np.sqrt(np.sum(p * p * b.s_low ** 2))),
+                        float(np.sqrt(np.sum(p * p * b.s_high ** 2))))
+            # Rises with every s_i: the errors go to their ends and the samples are searched.
+            low = self._search(lambda n: evaluate("samples", "stat_error", b.x, b.s_low, n),
+                               b.n_low, b.n_high, [b.n])[0]
+            high = self._search(lambda n: evaluate("samples", "stat_error", b.x, b.s_high, n),
+                                b.n_low, b.n_high, [b.n])[1]
+            return (low, high)
+        return self._searched(method, quantity)
+
+    # --- searches -------------------------------------------------------------------------------
+    def _searched(self, method: str, quantity: str) -> Range:
+        b = self.box
+        k = b.count
+        with_n = method == "samples" and not np.array_equal(b.n_low, b.n_high)
+        n_fixed = b.n
+
+        def split(z):
+            z = np.atleast_2d(z)
+            x, s = z[:, :k], z[:, k:2 * k]
+            n = z[:, 2 * k:] if with_n else n_fixed
+            return x, s, n
+
+        def fn(z):
+            x, s, n = split(z)
+            return evaluate(method, quantity, x, s, n)
+
+        low = np.concatenate([b.x_low, b.s_low] + ([b.n_low] if with_n else []))
+        high = np.concatenate([b.x_high, b.s_high] + ([b.n_high] if with_n else []))
+        centre = np.concatenate([b.x, b.s] + ([b.n] if with_n else []))
+        # Where Q is smallest (estimates drawn to a common value, errors large) and largest
+        # (estimates pushed apart, errors small): the scatter drives tau^2 and the Birge ratio.
+        wmid = 1.0 / b.s ** 2
+        mu = float(np.dot(wmid, b.x) / wmid.sum())
+        together = np.clip(mu, b.x_low, b.x_high)
+        apart = np.where(0.5 * (b.x_low + b.x_high) < mu, b.x_low, b.x_high)
+        extra = [b.n] if with_n else []
+        starts = [centre]
+        xs = [together, apart, b.x_low, b.x_high]
+        ss = [b.s_low, b.s_high]
+        if k <= PART_VERTICES:
+            # Every vertex of the estimates with the errors all at one end, and every vertex of
+            # the errors with the estimates drawn together or pushed apart.
+            pick = ((np.arange(2 ** k)[:, None] >> np.arange(k)) & 1).astype(bool)
+            xs += list(np.where(pick, b.x_high, b.x_low))
+            ss += list(np.where(pick, b.s_high, b.s_low))
+        for x in xs:
+            for s in (b.s_low, b.s_high):
+                starts.append(np.concatenate([x, s] + extra))
+        for s in ss:
+            for x in (together, apart):
+                starts.append(np.concatenate([x, s] + extra))
+        return self._search(fn, low, high, starts)
+
+    @staticmethod
+    def _search(fn_rows, low, high, starts) -> Range:
+        """Candidates (the starts and, for small boxes, every vertex) evaluated in
+        one batch; a bounded local search from the best two in each direction."""
+        low, high = np.asarray(low, float), np.asarray(high, float)
+        free = np.flatnonzero(high > low)
+        candidates = [np.asarray(s, float) for s in starts]
+        if 0 < free.size <= ALL_VERTICES:
+            pick = ((np.arange(2 ** free.size)[:, None] >> np.arange(free.size)) & 1).astype(bool)
+            vertices = np.tile(0.5 * (low + high), (pick.shape[0], 1))
+            vertices[:, free] = np.where(pick, high[free], low[free])
+            candidates.extend(vertices)
+        rows = np.vstack(candidates)
+        with np.errstate(all="ignore"):
+            values = np.asarray(fn_rows(rows), float)
+        ok = np.isfinite(values)
+        if not ok.any():
+            return (math.nan, math.nan)
+        order = np.argsort(np.where(ok, values, np.inf))
+        best = [rows[i] for i in order[:2] if ok[i]]
+        order = np.argsort(np.where(ok, -values, np.inf))
+        best += [rows[i] for i in order[:2] if ok[i]]
+
+        def one(z):
+            with np.errstate(all="ignore"):
+                return float(fn_rows(z[None, :])[0])
+
+        # With every vertex among the candidates one search each way from the best of them.
+        lo, hi = bounded_range(one, low, high, starts=best,
+                               searches=1 if free.size <= ALL_VERTICES else 2)
+        return (min(lo, float(values[ok].min())), max(hi, float(values[ok].max())))
