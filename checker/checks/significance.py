@@ -42,6 +42,9 @@ def _log10_span(log_bounds_natural: tuple[float, float]) -> Span:
     return Span(log_bounds_natural[0] / LN10, log_bounds_natural[1] / LN10, "log10")
 
 KEYS = ("sided", "systematics", "error_at")
+# What the claim leaves unsaid when it writes no such field, in the words of a note.
+UNSTATED_WORDS = {"sided": "sidedness", "systematics": "treatment of the systematic error",
+                  "error_at": "point at which the error is taken"}
 
 
 @dataclass(frozen=True)
@@ -252,7 +255,11 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
         return
     other = "two" if sig.sided == "one" else "one"
     if agrees_log(printed_log, implied(other), tol):
-        yield Finding("fail", f"{base}, but the printed p = {p.text} is the {other}-sided value.",
+        unstated = "sided" not in sig.stated
+        yield Finding("warn" if unstated else "fail",
+                      f"{base}, but the printed p = {p.text} is the {other}-sided value"
+                      + (f"; the claim states no sidedness, and the {other}-sided convention reproduces it."
+                         if unstated else "."),
                       reported=p.value, recomputed=finite_or_none(math.exp(stated[1])),
                       reproduced_by={"sided": other}, details=details, **about)
         return
@@ -265,7 +272,7 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
 
 
 def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree, recomputed_words,
-             agree_words, recomputed, stated, conv_words, details, about) -> Finding:
+             agree_words, recomputed, stated, conv_words, details, about, stated_keys=()) -> Finding:
     """One printed quantity (sigma, or p in log space) against its recomputation
     under the stated convention; on a disagreement, the first other convention
     (fewest changes first) that reproduces the print."""
@@ -275,7 +282,14 @@ def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree,
     other = next((r for r in results if r is not mine and agree(printed_bounds, pick(r))), None)
     reproduce = _differs(other.convention, stated) if other else None
     tail = f"; it would follow with {convention_text(reproduce)}" if other else "; no convention reproduces it"
-    return Finding("fail", f"{printed_words}, but estimate, threshold and errors give {recomputed_words} "
+    # A convention the claim did not state, under which the print follows, is a note naming it;
+    # a stated convention that does not reproduce the print stays a flag.
+    unstated = bool(reproduce) and not set(reproduce) & set(stated_keys)
+    if unstated:
+        tail = (f"; the claim states no {' or '.join(UNSTATED_WORDS[k] for k in reproduce)}, and the print "
+                f"follows with {convention_text(reproduce)}, a usual convention")
+    return Finding("warn" if unstated else "fail",
+                   f"{printed_words}, but estimate, threshold and errors give {recomputed_words} "
                    f"({conv_words}){tail}.", reported=printed.value, recomputed=recomputed,
                    reproduced_by=reproduce, details=details, **about)
 
@@ -317,7 +331,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                        sigma_mid, stated, conv_words,
                        {**details, "quantity": "sigma"},
                        {"field": sig.sigma.path, "statement": "sigma_vs_inputs", "printed": Shown.of(sig.sigma),
-                        "recomputed_range": Span(*mine.sigma), "tolerance": tol})
+                        "recomputed_range": Span(*mine.sigma), "tolerance": tol}, sig.stated)
     if sig.p_value is not None and is_probability(sig.p_value):
         p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
         yield _compare(f"Printed p = {sig.p_value.text}", sig.p_value, log_bounds(sig.p_value), results, mine,
@@ -326,7 +340,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                        p_mid, stated, conv_words,
                        {**details, "quantity": "p_value"},
                        {"field": sig.p_value.path, "statement": "p_vs_inputs", "printed": Shown.of(sig.p_value),
-                        "recomputed_range": _log10_span(mine.log_p), "tolerance": tol})
+                        "recomputed_range": _log10_span(mine.log_p), "tolerance": tol}, sig.stated)
     if sig.sigma is None and sig.p_value is None:
         yield Finding("pass", f"No significance is printed; estimate, threshold and errors give "
                       f"{span_text(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
