@@ -14,6 +14,7 @@ from ..claim.model import Claim
 from ..report import Finding, Report
 from . import bounds, error_floor, look_elsewhere, significance
 from . import combination, heterogeneity, extrapolation, error_budget, interval, granularity, rates  # noqa: E402,I001
+from . import comparison  # noqa: E402,I001
 from .spec import CheckSpec, Statement
 
 SPECS: tuple[CheckSpec, ...] = (
@@ -28,6 +29,7 @@ SPECS: tuple[CheckSpec, ...] = (
     interval.SPEC,
     granularity.SPEC,
     rates.SPEC,
+    comparison.SPEC,
 )
 
 # id -> spec, in the order above; the CLI's --only reads its keys.  A test may

@@ -122,6 +122,7 @@ SPEC = CheckSpec(
                       "or by more than their combined uncertainty. What accounts for the difference: missing "
                       "error sources, correlated errors, or a different model?")),
         "needs_inputs": ABOUT_THE_CLAIM,
+        "no_estimate": ABOUT_THE_CLAIM,
     },
     implied=implied,
 )

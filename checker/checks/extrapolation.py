@@ -205,5 +205,6 @@ SPEC = CheckSpec(
             question=("Which systematic errors besides the extrapolation factor's does the printed "
                       "systematic error include? Listing them would let readers follow it.")),
         "needs_inputs": ABOUT_THE_CLAIM,
+        "no_estimate": ABOUT_THE_CLAIM,
     },
 )

@@ -144,6 +144,7 @@ SPEC = CheckSpec(
             question=("How many samples or responses stand behind {what}? No whole count gives it "
                       "with the number printed.")),
         "needs_inputs": ABOUT_THE_CLAIM,
+        "no_estimate": ABOUT_THE_CLAIM,
         "cannot_bite": ABOUT_THE_CLAIM,
         "not_counts": ABOUT_THE_CLAIM,
         "headline_not_count": ABOUT_THE_CLAIM,

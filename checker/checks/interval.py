@@ -292,6 +292,7 @@ SPEC = CheckSpec(
             reproducible=True),
         "no_stat_error": ABOUT_THE_CLAIM,
         "needs_inputs": ABOUT_THE_CLAIM,
+        "no_estimate": ABOUT_THE_CLAIM,
         "reversed": ABOUT_THE_CLAIM,
     },
 )

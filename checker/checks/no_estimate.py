@@ -19,4 +19,5 @@ def kind_words(claim: Claim) -> str:
 def no_estimate(claim: Claim, needed_for: str) -> Finding:
     """A skip naming what the missing estimate was needed for."""
     return Finding("skip", f"No estimate is printed ({kind_words(claim)}), so {needed_for} cannot be "
-                   "recomputed.", details={"missing": ["estimate"]})
+                   "recomputed.", details={"missing": ["estimate"]},
+                   statement="no_estimate")

@@ -366,6 +366,10 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
 
 
 def check(claim: Claim) -> Iterator[Finding]:
+    if claim.metric == "counts":
+        from . import significance_counts
+        yield from significance_counts.check(claim, _sigma_vs_p)
+        return
     tol = claim.tolerance
     found = list(_sigma_vs_p(claim, tol)) + list(_against_recomputed(claim, tol))
     yield from found
@@ -404,5 +408,8 @@ SPEC = CheckSpec(
                            "over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached.")),
         "inputs_only": ABOUT_THE_CLAIM,
         "needs_inputs": ABOUT_THE_CLAIM,
+        "signal_yield": Statement(
+            question="How was {what} obtained? The observed count minus the expected background gives "
+                     "another value."),
     },
 )

@@ -15,11 +15,15 @@ Which method gives which range (``METHOD_OF`` names it for each quantity):
   exact.
 - Cochran's Q and the parts' scatter: ``ranges.weighted_ss_range`` (the
   minimum a convex problem, the maximum on a vertex).
-- random-effects means (DerSimonian-Laird, Paule-Mandel) and every error
-  scaled by the Birge ratio: no closed form; bounded local search
-  (L-BFGS-B) from the box's centre, from the points where Q is smallest and
-  largest and, for boxes of up to ``ALL_VERTICES`` free inputs, from the best
-  of all vertices.  These are the only approximate ranges.
+- the DerSimonian-Laird error and every error scaled by the Birge ratio
+  depend on the estimates only through Q and rise with it: for each set of
+  part errors their extremes over the estimates are Q's (exact); the part
+  errors are then searched.
+- random-effects means (DerSimonian-Laird, Paule-Mandel) and the Paule-Mandel
+  error: no closed form; bounded local search (L-BFGS-B) from the box's
+  centre, from the points where Q is smallest and largest and, for boxes of
+  up to ``ALL_VERTICES`` free inputs, from the best of all vertices (beyond,
+  from vertex climbs).  These searches are the only approximate ranges.
 
 When a part's error comes from the metric model (from its estimate and its
 count) rather than from print, the box gives that error its own interval, the
@@ -42,9 +46,10 @@ from dataclasses import dataclass
 import numpy as np
 
 from .combine import tau2_paule_mandel
-from .ranges import Range, bounded_range, weighted_mean_range, weighted_ss_range
+from .ranges import Range, _ss_max, _ss_min, bounded_range, weighted_mean_range, weighted_ss_range
 
 ALL_VERTICES = 12  # free inputs up to which every vertex is a starting candidate
+CLIMBS = 3  # beyond ALL_VERTICES: vertex climbs from this many best candidates each way
 PART_VERTICES = 10  # parts up to which every vertex of the estimates (and of the errors) is one
 
 METHOD_OF = {
@@ -56,10 +61,10 @@ METHOD_OF = {
     ("inverse-variance", "estimate"): "exact: weighted-mean thresholds",
     ("inverse-variance", "stat_error"): "exact: rises with every part error",
     ("random-effects", "estimate"): "bounded local search",
-    ("random-effects", "stat_error"): "bounded local search",
+    ("random-effects", "stat_error"): "exact over the estimates (through Q); errors searched",
     ("paule-mandel", "estimate"): "bounded local search",
     ("paule-mandel", "stat_error"): "bounded local search",
-    ("any", "scaled_error"): "bounded local search",
+    ("any", "scaled_error"): "exact over the estimates (through Q); errors searched",
     ("q", ""): "exact: convex minimum, vertex maximum",
     ("spread", ""): "exact: convex minimum, vertex maximum",
     ("average", ""): "exact: rises with every part error",
@@ -235,7 +240,59 @@ class CombinationRanges:
         return self._searched(method, quantity)
 
     # --- searches -------------------------------------------------------------------------------
+    def _through_q(self, method: str, quantity: str) -> bool:
+        """The quantity depends on the estimates only through Cochran's Q, and rises with it:
+        the DerSimonian-Laird error (tau^2 rises with Q) and every Birge-scaled error
+        (S = max(1, sqrt(Q/df))), samples weights exact."""
+        b = self.box
+        if quantity == "scaled_error":
+            return method in ("equal", "inverse-variance") or (
+                method == "samples" and np.array_equal(b.n_low, b.n_high))
+        return (method, quantity) == ("random-effects", "stat_error")
+
+    def _error_given_q(self, method: str, quantity: str, s: np.ndarray, q: float) -> float:
+        b = self.box
+        k = b.count
+        v = s * s
+        if quantity == "stat_error":  # random-effects
+            wf = 1.0 / v
+            wsum = wf.sum()
+            denom = wsum - np.dot(wf, wf) / wsum
+            tau2 = max(0.0, (q - (k - 1)) / denom) if denom > 0 else 0.0
+            return float(1.0 / math.sqrt(np.sum(1.0 / (v + tau2))))
+        if method == "equal":
+            err = math.sqrt(v.sum()) / k
+        elif method == "inverse-variance":
+            err = 1.0 / math.sqrt(np.sum(1.0 / v))
+        else:
+            p = b.n / b.n.sum()
+            err = math.sqrt(np.sum(p * p * v))
+        return err * max(1.0, math.sqrt(max(q, 0.0) / (k - 1)))
+
+    def _searched_through_q(self, method: str, quantity: str) -> Range:
+        """Over the estimates the quantity's extremes are those of Q, exact for every set of
+        errors (``ranges.weighted_ss_range``); the errors alone are then searched."""
+        b = self.box
+
+        def side(which):
+            def rows(z):
+                z = np.atleast_2d(z)
+                out = np.empty(z.shape[0])
+                for i, s in enumerate(z):
+                    w = 1.0 / (s * s)
+                    q = _ss_min(b.x_low, b.x_high, w) if which == "min" else _ss_max(b.x_low, b.x_high, w)
+                    out[i] = self._error_given_q(method, quantity, s, q)
+                return out
+            return rows
+
+        starts = [b.s, b.s_low, b.s_high]
+        low = self._search(side("min"), b.s_low, b.s_high, starts, vertex_limit=PART_VERTICES)[0]
+        high = self._search(side("max"), b.s_low, b.s_high, starts, vertex_limit=PART_VERTICES)[1]
+        return (low, high)
+
     def _searched(self, method: str, quantity: str) -> Range:
+        if self._through_q(method, quantity):
+            return self._searched_through_q(method, quantity)
         b = self.box
         k = b.count
         with_n = method == "samples" and not np.array_equal(b.n_low, b.n_high)
@@ -279,13 +336,37 @@ class CombinationRanges:
         return self._search(fn, low, high, starts)
 
     @staticmethod
-    def _search(fn_rows, low, high, starts) -> Range:
+    def _climb(fn_rows, low, high, free, start, sign, rounds: int = 50):
+        """From a point, move to the best vertex reached by flipping one free input to its
+        other end at a time (every flip of a round evaluated in one batch), while that
+        lowers (sign 1) or raises (sign -1) the value.  Returns (point, value) or None."""
+        point = np.where(start - low < high - start, low, high).astype(float)
+        point[~np.isin(np.arange(low.size), free)] = start[~np.isin(np.arange(low.size), free)]
+        with np.errstate(all="ignore"):
+            current = float(fn_rows(point[None, :])[0])
+        if not math.isfinite(current):
+            return None
+        for _ in range(rounds):
+            flips = np.tile(point, (free.size, 1))
+            cols = free
+            flips[np.arange(free.size), cols] = np.where(point[cols] == low[cols], high[cols], low[cols])
+            with np.errstate(all="ignore"):
+                values = np.asarray(fn_rows(flips), float)
+            values = np.where(np.isfinite(values), sign * values, np.inf)
+            i = int(np.argmin(values))
+            if not values[i] < sign * current:
+                break
+            point, current = flips[i], sign * values[i]
+        return point, current
+
+    @staticmethod
+    def _search(fn_rows, low, high, starts, vertex_limit: int = ALL_VERTICES) -> Range:
         """Candidates (the starts and, for small boxes, every vertex) evaluated in
         one batch; a bounded local search from the best two in each direction."""
         low, high = np.asarray(low, float), np.asarray(high, float)
         free = np.flatnonzero(high > low)
         candidates = [np.asarray(s, float) for s in starts]
-        if 0 < free.size <= ALL_VERTICES:
+        if 0 < free.size <= vertex_limit:
             pick = ((np.arange(2 ** free.size)[:, None] >> np.arange(free.size)) & 1).astype(bool)
             vertices = np.tile(0.5 * (low + high), (pick.shape[0], 1))
             vertices[:, free] = np.where(pick, high[free], low[free])
@@ -296,10 +377,20 @@ class CombinationRanges:
         ok = np.isfinite(values)
         if not ok.any():
             return (math.nan, math.nan)
-        order = np.argsort(np.where(ok, values, np.inf))
-        best = [rows[i] for i in order[:2] if ok[i]]
-        order = np.argsort(np.where(ok, -values, np.inf))
-        best += [rows[i] for i in order[:2] if ok[i]]
+        lowest = [rows[i] for i in np.argsort(np.where(ok, values, np.inf))[:CLIMBS] if ok[i]]
+        highest = [rows[i] for i in np.argsort(np.where(ok, -values, np.inf))[:CLIMBS] if ok[i]]
+        if free.size > vertex_limit:
+            # Not every vertex was tried: climb from the best ones, one flip at a time.
+            for sign, group in ((1.0, lowest), (-1.0, highest)):
+                for start in list(group):
+                    found = CombinationRanges._climb(fn_rows, low, high, free, start, sign)
+                    if found is not None:
+                        group.insert(0, found[0])
+                        values = np.append(values, found[1])
+                        ok = np.append(ok, True)
+            lowest.sort(key=lambda z: float(fn_rows(z[None, :])[0]))
+            highest.sort(key=lambda z: -float(fn_rows(z[None, :])[0]))
+        best = lowest[:2] + highest[:2]
 
         def one(z):
             with np.errstate(all="ignore"):
@@ -307,5 +398,5 @@ class CombinationRanges:
 
         # With every vertex among the candidates one search each way from the best of them.
         lo, hi = bounded_range(one, low, high, starts=best,
-                               searches=1 if free.size <= ALL_VERTICES else 2)
+                               searches=1 if free.size <= vertex_limit else 2)
         return (min(lo, float(values[ok].min())), max(hi, float(values[ok].max())))

@@ -270,7 +270,12 @@ def test_round_trip_drafts_check_like_the_originals(tmp_path):
 @pytest.mark.parametrize("path", TABLE_EXAMPLES, ids=[p.name for p in TABLE_EXAMPLES])
 def test_drafts_say_nothing_of_a_table_of_counts(path):
     original = load_document(path)
-    text = prose({k: v for k, v in original.data.items() if k not in NOT_DRAFTED}, original.texts, 0)
+    data, texts = {k: v for k, v in original.data.items() if k not in NOT_DRAFTED}, dict(original.texts)
+    if "estimate" not in data:  # a table of rates may leave it out: its first rate is the headline here
+        name, rate = next(iter(original.data["rates"].items()))
+        where = ("rates", name, "value") if isinstance(rate, dict) else ("rates", name)
+        data["estimate"], texts[("estimate",)] = texts[where], texts[where]
+    text = prose(data, texts, 0)
     text += "\nThe table holds 35 true positives, 4 false positives, 7 false negatives and 32 true negatives.\n"
     _, yaml_text = make_loadable(draft_text(text, f"{path.stem}.md"))
     drafted = parse_text(yaml_text, "draft.yaml", "yaml")
