@@ -261,3 +261,14 @@ def test_an_unstated_convention_that_reproduces_the_print_is_a_note(write_claim)
     status, out, _ = cli("check", write_claim(EXCESS % ", systematics: none"), "--json")
     (sig,) = [f for f in strict_json(out)["findings"] if f["check"] == "significance"]
     assert status == 1 and sig["status"] == "fail"
+
+
+def test_the_systematic_added_linearly_is_a_recognised_convention(write_claim):
+    # 638.0 / (52.1 + 122.2) = 3.660 (arithmetic); in quadrature the same inputs give 4.80.
+    text = EXCESS.replace("sigma: 4.8%s", "sigma: 3.66%s")
+    status, out, _ = cli("check", write_claim(text % ", systematics: quadrature"), "--json")
+    (sig,) = [f for f in strict_json(out)["findings"] if f["check"] == "significance"]
+    assert status == 1 and sig["reproduced_by"] == {"systematics": "linear"}
+    assert "added linearly" in sig["message"]
+    status, out, _ = cli("check", write_claim(text % ", systematics: linear"), "--json", "--only", "significance")
+    assert status == 0 and [f["status"] for f in strict_json(out)["findings"]] == ["pass"]

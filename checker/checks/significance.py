@@ -76,7 +76,7 @@ def _conventions(claim: Claim) -> list[dict]:
     """Every convention the claim's inputs can express, the stated one first and
     the rest by how many choices they change."""
     stated = stated_convention(claim)
-    systematics = ["none", "quadrature", "marginalized"] if claim.syst_error else ["none"]
+    systematics = ["none", "quadrature", "marginalized", "linear"] if claim.syst_error else ["none"]
     error_at = ["estimate"]
     model = metric_of(claim)
     if count_for_error(claim) is not None and not model.needs():
@@ -113,7 +113,9 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         return None
 
     def z_of(e, s, ss):
-        return (e - t) / math.hypot(s, ss)
+        # linear: the systematic added to the statistical error (stat + syst), a common slip
+        # that overstates the error; otherwise in quadrature (or zero when left out).
+        return (e - t) / ((s + ss) if systematics == "linear" else math.hypot(s, ss))
 
     def log_p_of(e, s, ss):
         if systematics == "marginalized" and ss > 0:
@@ -145,7 +147,7 @@ def per_circuit(claim: Claim) -> bool:
 def _recompute_per_circuit(claim: Claim, convention: dict, syst: tuple[float, float]) -> Recomputed | None:
     """z and log p with the heavy-output criterion's error over circuits, taken at the estimate
     (exact at the vertices of estimate, circuits and systematic: ``heavy_output_sigma``)."""
-    if convention["systematics"] == "marginalized":
+    if convention["systematics"] in ("marginalized", "linear"):
         return None
     t = claim.threshold.value
     sided = convention["sided"]

@@ -34,7 +34,7 @@ CHUNK = 1000
 RECORD = ("source", "title", "claim_source", "metric", "verdict", "failed_checks", "flagged", "noted",
           "agree", "not_checked", "sigma_printed", "p_printed", "required_sigma", "estimate",
           "threshold", "stat_error", "interval_low", "interval_high", "interval_level",
-          "threshold_error", "error_at_threshold", "syst_error", "two_sided", "problem")
+          "threshold_error", "error_at_threshold", "syst_error", "syst_linear", "two_sided", "problem")
 
 # The summary table's columns, in order (DESIGN.md fixes the first names).
 COLUMNS = ("source", "title", "verdict", "failed_checks", "sigma_recomputed", "p_recomputed",
@@ -100,12 +100,12 @@ def claim_record(claim, report, source: str) -> tuple:
             _value(sig.required_sigma), _value(claim.estimate), _value(claim.threshold),
             _value(claim.stat_error), _value(iv.low) if iv else NAN, _value(iv.high) if iv else NAN,
             _value(iv.level) if iv else NAN, threshold_error, at_threshold,
-            0.0 if math.isnan(syst) else syst, sig.sided == "two", "")
+            0.0 if math.isnan(syst) else syst, sig.systematics == "linear", sig.sided == "two", "")
 
 
 def unusable_record(source: str, problem: str, title: str = "") -> tuple:
     return (source, title, "", "", UNUSABLE, "", 0, 0, 0, 0, "", "", NAN, NAN, NAN, NAN, NAN, NAN, NAN,
-            NAN, False, 0.0, False, problem)
+            NAN, False, 0.0, False, False, problem)
 
 
 def _internal(exc: Exception) -> str:
@@ -223,7 +223,10 @@ def summarize(records: list, name: str, unit: str = "row"):
     from_interval = error_from_interval(f["interval_low"], f["interval_high"], f["interval_level"])
     stat = np.where(at_threshold, f["threshold_error"],
                     np.where(np.isnan(f["stat_error"]), from_interval, f["stat_error"]))
-    sig = significance_columns(f["estimate"], f["threshold"], stat, f["syst_error"], two)
+    # A systematic added linearly widens the statistical error itself (stat + syst).
+    linear = np.asarray(col["syst_linear"], dtype=bool)
+    stat = np.where(linear, stat + f["syst_error"], stat)
+    sig = significance_columns(f["estimate"], f["threshold"], stat, np.where(linear, 0.0, f["syst_error"]), two)
     adjusted = adjust_log_p_values(sig.log_p)
     sigma_holm = sigma_from_log_p(adjusted.log_p_holm, two)
     sigma_bh = sigma_from_log_p(adjusted.log_p_bh, two)
