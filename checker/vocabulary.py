@@ -73,6 +73,7 @@ _CONVENTION_BRIEF = {
     ("systematics", "none"): "statistical error only",
     ("systematics", "quadrature"): "systematic error added in quadrature",
     ("systematics", "marginalized"): "systematic error marginalized",
+    ("systematics", "linear"): "systematic error added linearly (stat + syst)",
     ("error_at", "estimate"): "error taken at the estimate",
     ("error_at", "threshold"): "error taken at the threshold",
     ("method", "sidak"): "the Sidak correction", ("method", "bonferroni"): "the Bonferroni bound",
@@ -106,6 +107,7 @@ SYSTEMATICS_PHRASES = {
     "none": "with the systematic error left out of the significance",
     "quadrature": "with the systematic error added in quadrature",
     "marginalized": "with the p-value averaged over the systematic error (Cousins-Highland)",
+    "linear": "with the systematic error added linearly to the statistical error (stat + syst)",
 }
 ERROR_AT_PHRASES = {
     "estimate": "with the standard error taken at the estimate",

@@ -237,3 +237,38 @@ def test_check_takes_several_files_and_standard_input(write_claim, monkeypatch):
         assert (status, err) == (0, "") and "from <stdin>" in out
     line = one_error_line(*cli("check", clean, flawed, "--html", "out.html"), starts="--html: ")
     assert "use claimcheck batch" in line
+
+
+EXCESS = """\
+title: Invented excess over background (invented numbers)
+metric: mean
+estimate: 638.0
+stat_error: 52.1
+syst_error: 122.2
+threshold: 0
+significance: {sigma: 4.8%s}
+"""
+
+
+def test_an_unstated_convention_that_reproduces_the_print_is_a_note(write_claim):
+    # 638.0 / sqrt(52.1^2 + 122.2^2) = 4.80 (common practice: errors in quadrature).
+    status, out, _ = cli("check", write_claim(EXCESS % ""), "--json")
+    (sig,) = [f for f in strict_json(out)["findings"] if f["check"] == "significance"]
+    assert status == 0 and sig["status"] == "warn"
+    assert sig["reproduced_by"] == {"systematics": "quadrature"}
+    assert "states no treatment of the systematic error" in sig["message"]
+    # Stated, the convention that does not reproduce the print stays a flag.
+    status, out, _ = cli("check", write_claim(EXCESS % ", systematics: none"), "--json")
+    (sig,) = [f for f in strict_json(out)["findings"] if f["check"] == "significance"]
+    assert status == 1 and sig["status"] == "fail"
+
+
+def test_the_systematic_added_linearly_is_a_recognised_convention(write_claim):
+    # 638.0 / (52.1 + 122.2) = 3.660 (arithmetic); in quadrature the same inputs give 4.80.
+    text = EXCESS.replace("sigma: 4.8%s", "sigma: 3.66%s")
+    status, out, _ = cli("check", write_claim(text % ", systematics: quadrature"), "--json")
+    (sig,) = [f for f in strict_json(out)["findings"] if f["check"] == "significance"]
+    assert status == 1 and sig["reproduced_by"] == {"systematics": "linear"}
+    assert "added linearly" in sig["message"]
+    status, out, _ = cli("check", write_claim(text % ", systematics: linear"), "--json", "--only", "significance")
+    assert status == 0 and [f["status"] for f in strict_json(out)["findings"]] == ["pass"]

@@ -42,6 +42,9 @@ def _log10_span(log_bounds_natural: tuple[float, float]) -> Span:
     return Span(log_bounds_natural[0] / LN10, log_bounds_natural[1] / LN10, "log10")
 
 KEYS = ("sided", "systematics", "error_at")
+# What the claim leaves unsaid when it writes no such field, in the words of a note.
+UNSTATED_WORDS = {"sided": "sidedness", "systematics": "treatment of the systematic error",
+                  "error_at": "point at which the error is taken"}
 
 
 @dataclass(frozen=True)
@@ -73,7 +76,7 @@ def _conventions(claim: Claim) -> list[dict]:
     """Every convention the claim's inputs can express, the stated one first and
     the rest by how many choices they change."""
     stated = stated_convention(claim)
-    systematics = ["none", "quadrature", "marginalized"] if claim.syst_error else ["none"]
+    systematics = ["none", "quadrature", "marginalized", "linear"] if claim.syst_error else ["none"]
     error_at = ["estimate"]
     model = metric_of(claim)
     if count_for_error(claim) is not None and not model.needs():
@@ -110,7 +113,9 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         return None
 
     def z_of(e, s, ss):
-        return (e - t) / math.hypot(s, ss)
+        # linear: the systematic added to the statistical error (stat + syst), a common slip
+        # that overstates the error; otherwise in quadrature (or zero when left out).
+        return (e - t) / ((s + ss) if systematics == "linear" else math.hypot(s, ss))
 
     def log_p_of(e, s, ss):
         if systematics == "marginalized" and ss > 0:
@@ -142,7 +147,7 @@ def per_circuit(claim: Claim) -> bool:
 def _recompute_per_circuit(claim: Claim, convention: dict, syst: tuple[float, float]) -> Recomputed | None:
     """z and log p with the heavy-output criterion's error over circuits, taken at the estimate
     (exact at the vertices of estimate, circuits and systematic: ``heavy_output_sigma``)."""
-    if convention["systematics"] == "marginalized":
+    if convention["systematics"] in ("marginalized", "linear"):
         return None
     t = claim.threshold.value
     sided = convention["sided"]
@@ -229,7 +234,10 @@ def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
     if stat is None or not (math.isfinite(stat) and stat > 0):
         return None
     syst = claim.syst_error.value if (claim.syst_error is not None and convention["systematics"] != "none") else 0.0
-    z = (claim.estimate.value - t) / math.hypot(stat, syst if math.isfinite(syst) else 0.0)
+    syst = syst if math.isfinite(syst) else 0.0
+    # A systematic added linearly widens the error itself (stat + syst); otherwise in quadrature.
+    total = stat + syst if convention["systematics"] == "linear" else math.hypot(stat, syst)
+    z = (claim.estimate.value - t) / total
     if not math.isfinite(z):
         return None
     sided = convention["sided"]
@@ -355,7 +363,11 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
         return
     other = "two" if sig.sided == "one" else "one"
     if agrees_log(printed_log, implied(other), tol):
-        yield Finding("fail", f"{base}, but the printed p = {p.text} is the {other}-sided value.",
+        unstated = "sided" not in sig.stated
+        yield Finding("warn" if unstated else "fail",
+                      f"{base}, but the printed p = {p.text} is the {other}-sided value"
+                      + (f"; the claim states no sidedness, and the {other}-sided convention reproduces it."
+                         if unstated else "."),
                       reported=p.value, recomputed=finite_or_none(math.exp(stated[1])),
                       reproduced_by={"sided": other}, details=details, **about)
         return
@@ -368,7 +380,7 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
 
 
 def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree, recomputed_words,
-             agree_words, recomputed, stated, conv_words, details, about) -> Finding:
+             agree_words, recomputed, stated, conv_words, details, about, stated_keys=()) -> Finding:
     """One printed quantity (sigma, or p in log space) against its recomputation
     under the stated convention; on a disagreement, the first other convention
     (fewest changes first) that reproduces the print."""
@@ -378,7 +390,14 @@ def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree,
     other = next((r for r in results if r is not mine and agree(printed_bounds, pick(r))), None)
     reproduce = _differs(other.convention, stated) if other else None
     tail = f"; it would follow with {convention_text(reproduce)}" if other else "; no convention reproduces it"
-    return Finding("fail", f"{printed_words}, but estimate, threshold and errors give {recomputed_words} "
+    # A convention the claim did not state, under which the print follows, is a note naming it;
+    # a stated convention that does not reproduce the print stays a flag.
+    unstated = bool(reproduce) and not set(reproduce) & set(stated_keys)
+    if unstated:
+        tail = (f"; the claim states no {' or '.join(UNSTATED_WORDS[k] for k in reproduce)}, and the print "
+                f"follows with {convention_text(reproduce)}, a usual convention")
+    return Finding("warn" if unstated else "fail",
+                   f"{printed_words}, but estimate, threshold and errors give {recomputed_words} "
                    f"({conv_words}){tail}.", reported=printed.value, recomputed=recomputed,
                    reproduced_by=reproduce, details=details, **about)
 
@@ -424,7 +443,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                        sigma_mid, stated, conv_words,
                        {**details, "quantity": "sigma"},
                        {"field": sig.sigma.path, "statement": "sigma_vs_inputs", "printed": Shown.of(sig.sigma),
-                        "recomputed_range": Span(*mine.sigma), "tolerance": tol})
+                        "recomputed_range": Span(*mine.sigma), "tolerance": tol}, sig.stated)
     if sig.p_value is not None and is_probability(sig.p_value):
         p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
         yield _compare(f"Printed p = {sig.p_value.text}", sig.p_value, log_bounds(sig.p_value), results, mine,
@@ -433,7 +452,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                        p_mid, stated, conv_words,
                        {**details, "quantity": "p_value"},
                        {"field": sig.p_value.path, "statement": "p_vs_inputs", "printed": Shown.of(sig.p_value),
-                        "recomputed_range": _log10_span(mine.log_p), "tolerance": tol})
+                        "recomputed_range": _log10_span(mine.log_p), "tolerance": tol}, sig.stated)
     if sig.sigma is None and sig.p_value is None:
         yield Finding("pass", f"No significance is printed; estimate, threshold and errors give "
                       f"{span_text(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",

@@ -131,7 +131,7 @@ def _section(key: str, draft: Draft, missing: dict) -> list[str]:
     if key == "significance" and "systematics" not in fields and "syst_error" in {
             f.path[0] for f in draft.fields} and ({"sigma", "p_value"} & set(fields)):
         out.append("  # systematics: none    # guess: the text does not say whether the systematic error "
-                   "entered the significance (none, quadrature or marginalized)")
+                   "entered the significance (none, quadrature, marginalized or linear)")
     if key == "extrapolation" and "error_to" not in fields and "factor_error" in fields:
         out.append("  # error_to: syst    # guess: the text does not say where the factor's error goes; "
                    "systematic is the default")

@@ -343,7 +343,10 @@ def _significance_figure(report: Report, claim: Claim) -> str | None:
     syst = claim.syst_error.value if claim.syst_error is not None else None
     if any(f.details.get("syst_in_error") for f in found) and syst:
         # The check says the systematic error entered the significance: the null drawn is that wide.
-        width, label = math.hypot(width, syst), "stat_error and syst_error in quadrature"
+        if claim.significance.systematics == "linear":
+            width, label = width + syst, "stat_error + syst_error (added linearly)"
+        else:
+            width, label = math.hypot(width, syst), "stat_error and syst_error in quadrature"
     recomputed = None
     for f in found:
         r = f.recomputed_range

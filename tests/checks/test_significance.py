@@ -43,7 +43,7 @@ def test_the_reference_example_agrees_under_its_convention(check_claim, systemat
 
 
 def test_a_systematic_left_out_is_caught_and_named(check_claim):
-    found = sig_findings(check_claim, CH + "significance: {sigma: 2.236, p_value: 0.01267}\n")
+    found = sig_findings(check_claim, CH + "significance: {sigma: 2.236, p_value: 0.01267, systematics: none}\n")
     q = by_quantity(found)
     assert q["sigma_vs_p"].status == "pass"
     assert q["sigma"].status == "fail" and dict(q["sigma"].reproduced_by) == {"systematics": "quadrature"}
@@ -52,12 +52,17 @@ def test_a_systematic_left_out_is_caught_and_named(check_claim):
         "Printed 2.236 sigma, but estimate, threshold and errors give 5 sigma (one-sided, statistical error "
         "only, error taken at the estimate); it would follow with systematic error added in quadrature.")
     assert q["p_value"].status == "fail" and dict(q["p_value"].reproduced_by) == {"systematics": "quadrature"}
+    # Unstated, the same numbers follow from a usual convention: a note naming it, not a flag.
+    q = by_quantity(sig_findings(check_claim, CH + "significance: {sigma: 2.236, p_value: 0.01267}\n"))
+    for key in ("sigma", "p_value"):
+        assert q[key].status == "warn" and dict(q[key].reproduced_by) == {"systematics": "quadrature"}
+        assert "the claim states no treatment of the systematic error" in q[key].message
 
 
 def test_the_sidedness_slip(check_claim):
     # One-sided claim, but the printed p is twice the one-sided tail of the printed sigma.
     found = sig_findings(check_claim, CH + "significance: {sigma: 2.236, p_value: 0.02535, "
-                                           "systematics: quadrature}\n")
+                                           "systematics: quadrature, sided: one}\n")
     q = by_quantity(found)
     assert q["sigma_vs_p"].status == "fail"
     assert dict(q["sigma_vs_p"].reproduced_by) == {"sided": "two"}
@@ -108,8 +113,10 @@ def test_error_at_the_threshold(check_claim):
     # 0.80 vs 0.5 with 100 samples: se at the threshold sqrt(0.25 / 100) = 0.05 gives z = 6.0;
     # the printed error at the estimate, 0.040, gives 7.5.
     base = "title: Invented claim\nmetric: proportion\nestimate: 0.80\nthreshold: 0.5\nsamples: 100\nstat_error: 0.040\n"
-    (f,) = sig_findings(check_claim, base + "significance: {sigma: 6.0}\n")
+    (f,) = sig_findings(check_claim, base + "significance: {sigma: 6.0, error_at: estimate}\n")
     assert f.status == "fail" and dict(f.reproduced_by) == {"error_at": "threshold"}
+    (f,) = sig_findings(check_claim, base + "significance: {sigma: 6.0}\n")
+    assert f.status == "warn" and dict(f.reproduced_by) == {"error_at": "threshold"}
     (f,) = sig_findings(check_claim, base + "significance: {sigma: 6.0, error_at: threshold}\n")
     assert f.status == "pass" and f.details["sigma_low"] < 6.0 < f.details["sigma_high"]
 
@@ -127,7 +134,7 @@ def test_a_40_sigma_claim(check_claim):
 
 def test_a_sidedness_slip_at_40_sigma_is_still_a_factor_of_two(check_claim):
     # DESIGN.md: compare p as p, so a factor of 2 is caught where sigma hides it in 0.05%.
-    found = sig_findings(check_claim, DEEP + "significance: {sigma: 40.000, p_value: 7.32e-350}\n")
+    found = sig_findings(check_claim, DEEP + "significance: {sigma: 40.000, p_value: 7.32e-350, sided: one}\n")
     q = by_quantity(found)
     assert q["sigma_vs_p"].status == "fail" and dict(q["sigma_vs_p"].reproduced_by) == {"sided": "two"}
     assert q["sigma"].status == "pass"
