@@ -207,6 +207,39 @@ def _criterion(claim: Claim, shown: Recomputed, tol: float) -> Iterator[Finding]
                       recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts, **about)
 
 
+def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
+    """z and natural log p at the printed central values, under one convention:
+    the numbers a survey adjusts across its claims (Holm, Benjamini-Hochberg).
+    A marginalized systematic gives the quadrature value exactly for a Gaussian
+    null (Cousins and Highland 1992), so it is computed as quadrature here.
+    None when the claim lacks a threshold or a positive error."""
+    if claim.threshold is None or claim.estimate is None:
+        return None
+    t = claim.threshold.value
+    if convention["error_at"] == "threshold":
+        n = count_for_error(claim)
+        model = metric_of(claim)
+        if n is None or any(getattr(claim, f) is None for f in model.needs()):
+            return None
+        stat = model.standard_error(t, n.value, model_inputs(claim))
+    elif claim.stat_error is not None:
+        stat = claim.stat_error.value
+    elif claim.interval is not None:
+        iv = claim.interval
+        stat = sigma_from_interval(iv.low.value, iv.high.value, iv.level.value)
+    else:
+        return None
+    if stat is None or not (math.isfinite(stat) and stat > 0):
+        return None
+    syst = claim.syst_error.value if (claim.syst_error is not None and convention["systematics"] != "none") else 0.0
+    syst = syst if math.isfinite(syst) else 0.0
+    z = (claim.estimate.value - t) / ((stat + syst) if convention["systematics"] == "linear" else math.hypot(stat, syst))
+    if not math.isfinite(z):
+        return None
+    sided = convention["sided"]
+    return (abs(z) if sided == "two" else z), log_p_from_sigma(abs(z) if sided == "two" else z, sided)
+
+
 class _Lazy:
     """An iterable that computes its items only as far as a search reads them,
     each at most once.  The order, and so every search's answer, is that of the
@@ -320,7 +353,11 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     syst_in = stated["systematics"] != "none" and claim.syst_error is not None and claim.syst_error.value > 0
     if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and per_circuit(claim):
         conv_words += ", the criterion's error over circuits sqrt(h(1 - h)/circuits)"
+    at_centre = central(claim, stated)
     details = {"convention": stated, "stated": sorted(sig.stated), "syst_in_error": syst_in,
+               # z and log10 p at the printed central values, which a survey adjusts across its claims
+               "sigma_central": at_centre[0] if at_centre else None,
+               "log10_p_central": at_centre[1] / LN10 if at_centre else None,
                "sigma_low": mine.sigma[0], "sigma_high": mine.sigma[1],
                "log10_p_low": mine.log_p[0] / math.log(10), "log10_p_high": mine.log_p[1] / math.log(10),
                "tolerance": tol}

@@ -3,8 +3,10 @@ the recomputed significance of each claim and its Holm and Benjamini-Hochberg
 adjusted p-values.
 
 The per-claim work (reading a row, the schema, the checks) runs in worker
-processes for large tables; the arithmetic that spans the set (z, p and their
-adjustment) runs once over whole columns with numpy.  A row that cannot be
+processes for large tables; each claim's z and p are read from its
+``significance`` findings (the check recomputes them at the printed central
+values), and their adjustment across the set runs once over whole columns with
+numpy.  A row that cannot be
 used becomes a row with verdict ``unusable`` and the reason, and the batch
 goes on.
 """
@@ -13,11 +15,10 @@ from __future__ import annotations
 
 import math
 import os
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, fields
 from typing import Any, Callable, Sequence
 
 from ..checks import run_checks
-from ..checks.common import count_for_error, metric_of, model_inputs
 from ..claim import claim_from_document, read_claim
 from ..claim.model import build_claim
 from ..errors import ClaimcheckError
@@ -26,15 +27,37 @@ from .columns import ColumnPlan
 from .table import Folder, Row, Table, read_source
 
 UNUSABLE = "unusable"
+NAN = math.nan
+LN10 = math.log(10.0)
 VERDICTS = ("consistent", "inconsistent", "incomplete", UNUSABLE)
 PARALLEL_FROM = 2000  # rows: below this one process is faster than starting workers
 CHUNK = 1000
 
-# What a worker sends back for each claim, in this order.
-RECORD = ("source", "title", "claim_source", "metric", "verdict", "failed_checks", "flagged", "noted",
-          "agree", "not_checked", "sigma_printed", "p_printed", "required_sigma", "estimate",
-          "threshold", "stat_error", "interval_low", "interval_high", "interval_level",
-          "threshold_error", "error_at_threshold", "syst_error", "syst_linear", "two_sided", "problem")
+
+@dataclass(frozen=True)
+class ClaimRecord:
+    """What a worker sends back for one claim: its verdict and counts, and the
+    significance its ``significance`` check recomputed at the printed central
+    values (NaN when the check could not recompute it)."""
+
+    source: str
+    title: str = ""
+    claim_source: str = ""
+    metric: str = ""
+    verdict: str = UNUSABLE
+    failed_checks: str = ""
+    flagged: int = 0
+    noted: int = 0
+    agree: int = 0
+    not_checked: int = 0
+    sigma_printed: str = ""
+    p_printed: str = ""
+    required_sigma: float = NAN
+    sigma: float = NAN
+    log_p: float = NAN
+    two_sided: bool = False
+    problem: str = ""
+
 
 # The summary table's columns, in order (DESIGN.md fixes the first names).
 COLUMNS = ("source", "title", "verdict", "failed_checks", "sigma_recomputed", "p_recomputed",
@@ -42,7 +65,6 @@ COLUMNS = ("source", "title", "verdict", "failed_checks", "sigma_recomputed", "p
            "sigma_holm", "sigma_bh", "sigma_printed", "p_printed", "metric", "claim_source",
            "flagged", "noted", "agree", "not_checked", "problem")
 
-NAN = math.nan
 
 
 @dataclass(frozen=True)
@@ -79,33 +101,33 @@ def _value(rep) -> float:
     return rep.value if rep is not None else NAN
 
 
-def claim_record(claim, report, source: str) -> tuple:
-    """The record of one checked claim: its verdict and the central values the
-    set-wide arithmetic needs."""
+def recomputed_significance(report) -> tuple[float, float]:
+    """(z, natural log p) of a claim as its ``significance`` check recomputed
+    them at the printed central values; NaN when it could not.
+
+    The set-wide adjustment reads them from the findings rather than
+    recomputing them (benchmarks/against_main.py measures what this costs)."""
+    for f in report.findings:
+        if f.check == "significance" and f.details.get("sigma_central") is not None:
+            return f.details["sigma_central"], f.details["log10_p_central"] * LN10
+    return NAN, NAN
+
+
+def claim_record(claim, report, source: str) -> ClaimRecord:
+    """The record of one checked claim: its verdict, counts and recomputed significance."""
     sig = claim.significance
     counts = report.counts()
-    iv = claim.interval
-    threshold_error = NAN
-    at_threshold = sig.error_at == "threshold"
-    if at_threshold and claim.threshold is not None:
-        n = count_for_error(claim)
-        model = metric_of(claim)
-        if n is not None and not any(getattr(claim, f) is None for f in model.needs()):
-            se = model.standard_error(claim.threshold.value, n.value, model_inputs(claim))
-            threshold_error = se if se is not None else NAN
-    syst = _value(claim.syst_error) if sig.systematics != "none" else 0.0
-    return (source, claim.title, claim.source or "", claim.metric, report.verdict,
-            ";".join(report.failed_checks()), counts["fail"], counts["warn"], counts["pass"],
-            counts["skip"], sig.sigma.text if sig.sigma else "", sig.p_value.text if sig.p_value else "",
-            _value(sig.required_sigma), _value(claim.estimate), _value(claim.threshold),
-            _value(claim.stat_error), _value(iv.low) if iv else NAN, _value(iv.high) if iv else NAN,
-            _value(iv.level) if iv else NAN, threshold_error, at_threshold,
-            0.0 if math.isnan(syst) else syst, sig.systematics == "linear", sig.sided == "two", "")
+    sigma, log_p = recomputed_significance(report)
+    return ClaimRecord(
+        source=source, title=claim.title, claim_source=claim.source or "", metric=claim.metric,
+        verdict=report.verdict, failed_checks=";".join(report.failed_checks()), flagged=counts["fail"],
+        noted=counts["warn"], agree=counts["pass"], not_checked=counts["skip"],
+        sigma_printed=sig.sigma.text if sig.sigma else "", p_printed=sig.p_value.text if sig.p_value else "",
+        required_sigma=_value(sig.required_sigma), sigma=sigma, log_p=log_p, two_sided=sig.sided == "two")
 
 
-def unusable_record(source: str, problem: str, title: str = "") -> tuple:
-    return (source, title, "", "", UNUSABLE, "", 0, 0, 0, 0, "", "", NAN, NAN, NAN, NAN, NAN, NAN, NAN,
-            NAN, False, 0.0, False, False, problem)
+def unusable_record(source: str, problem: str, title: str = "") -> ClaimRecord:
+    return ClaimRecord(source=source, title=title, problem=problem)
 
 
 def _internal(exc: Exception) -> str:
@@ -206,37 +228,29 @@ def summarize(records: list, name: str, unit: str = "row"):
     import pandas as pd
 
     from ..stats.adjust import adjust_log_p_values
-    from ..stats.columnwise import error_from_interval, sigma_from_log_p, significance_columns
+    from ..stats.columnwise import sigma_from_log_p
 
-    col = dict(zip(RECORD, (list(c) for c in zip(*records)))) if records else {k: [] for k in RECORD}
+    names = [f.name for f in fields(ClaimRecord)]
+    col = {k: [getattr(r, k) for r in records] for k in names}
     # Text from the claims and their file names is shown safely (a lone surrogate from an
     # undecodable name or a "\ud800" escape is not even storable in a string column).
     for key in ("source", "title", "claim_source", "problem", "sigma_printed", "p_printed"):
         col[key] = [visible(x) for x in col[key]]
-    f = {k: np.asarray(col[k], dtype=float) for k in
-         ("estimate", "threshold", "stat_error", "interval_low", "interval_high", "interval_level",
-          "threshold_error", "syst_error", "required_sigma")}
-    at_threshold = np.asarray(col["error_at_threshold"], dtype=bool)
     two = np.asarray(col["two_sided"], dtype=bool)
-    # The error the significance divides by: the printed one, or else the
-    # interval's; the model's at the threshold when the claim says so.
-    from_interval = error_from_interval(f["interval_low"], f["interval_high"], f["interval_level"])
-    stat = np.where(at_threshold, f["threshold_error"],
-                    np.where(np.isnan(f["stat_error"]), from_interval, f["stat_error"]))
-    # A systematic added linearly widens the statistical error itself (stat + syst).
-    linear = np.asarray(col["syst_linear"], dtype=bool)
-    stat = np.where(linear, stat + f["syst_error"], stat)
-    sig = significance_columns(f["estimate"], f["threshold"], stat, np.where(linear, 0.0, f["syst_error"]), two)
-    adjusted = adjust_log_p_values(sig.log_p)
+    sigma = np.asarray(col["sigma"], dtype=float)
+    log_p = np.asarray(col["log_p"], dtype=float)
+    with np.errstate(under="ignore"):
+        p = np.exp(log_p)
+    adjusted = adjust_log_p_values(log_p)
     sigma_holm = sigma_from_log_p(adjusted.log_p_holm, two)
     sigma_bh = sigma_from_log_p(adjusted.log_p_bh, two)
-    need = f["required_sigma"]
+    need = np.asarray(col["required_sigma"], dtype=float)
 
     def clears(sigma):
         known = np.isfinite(need) & ~np.isnan(sigma)
         return known, np.where(known, sigma >= need, False)
 
-    known, raw = clears(sig.sigma)
+    known, raw = clears(sigma)
     _, holm = clears(sigma_holm)
     _, bh = clears(sigma_bh)
 
@@ -247,7 +261,7 @@ def summarize(records: list, name: str, unit: str = "row"):
 
     frame = pd.DataFrame({
         "source": col["source"], "title": col["title"], "verdict": col["verdict"],
-        "failed_checks": col["failed_checks"], "sigma_recomputed": sig.sigma, "p_recomputed": sig.p,
+        "failed_checks": col["failed_checks"], "sigma_recomputed": sigma, "p_recomputed": p,
         "p_holm": adjusted.p_holm, "p_bh": adjusted.p_bh, "required_sigma": need,
         "clears_required": maybe(raw), "clears_holm": maybe(holm), "clears_bh": maybe(bh),
         "sigma_holm": sigma_holm, "sigma_bh": sigma_bh,

@@ -271,3 +271,34 @@ def test_heavy_output_criterion_without_a_printed_error_is_computed(check_claim)
     z = (0.757 - 0.6666667) / math.sqrt(0.757 * 0.243 / 100)
     assert required.details["sigma_low"] < z < required.details["sigma_high"]
     assert "criterion" not in statuses  # no second convention to compare
+
+
+def test_the_central_significance_matches_the_pdg_tail_areas(check_claim):
+    # Particle Data Group, Review of Particle Physics, "Statistics", table of Gaussian tail
+    # areas (from memory): two-sided 3 sigma 2.7e-3, 5 sigma 5.7e-7; one-sided 5 sigma 2.87e-7.
+    import math
+
+    for sided, z, p, rel in (("two", 3, 2.7e-3, 0.01), ("two", 5, 5.7e-7, 0.01), ("one", 5, 2.87e-7, 0.002),
+                             ("one", 3, 2.7e-3 / 2, 0.01)):
+        report = check_claim(f"title: Invented\nmetric: mean\nestimate: {z}\nstat_error: 1\nsd: 1\n"
+                             f"threshold: 0\nsignificance: {{sided: {sided}}}\n", only=["significance"])
+        d = next(f.details for f in report.findings if f.statement == "inputs_only")
+        assert d["sigma_central"] == pytest.approx(z, rel=1e-12)
+        assert 10 ** d["log10_p_central"] == pytest.approx(p, rel=rel)
+
+
+def test_the_central_significance_uses_the_stated_errors(check_claim):
+    import math
+
+    # Quadrature of stat and syst; marginalized gives the same for a Gaussian null (Cousins and
+    # Highland 1992); an interval's half-width over 1.96 at 95% (PDG "Statistics").
+    for systematics in ("quadrature", "marginalized"):
+        report = check_claim("title: Invented\nmetric: mean\nestimate: 0.081\nstat_error: 0.012\nsd: 1\n"
+                             f"syst_error: 0.008\nthreshold: 0.03\nsignificance: {{systematics: {systematics}}}\n",
+                             only=["significance"])
+        d = report.findings[0].details
+        assert d["sigma_central"] == pytest.approx(0.051 / math.hypot(0.012, 0.008), rel=1e-12)
+    report = check_claim("title: Invented\nmetric: linear-xeb\nestimate: 1.85e-3\nthreshold: 1.0e-3\n"
+                         "interval: {low: 1.5e-3, high: 2.2e-3, level: 0.95}\n", only=["significance"])
+    d = report.findings[0].details
+    assert d["sigma_central"] == pytest.approx(0.85e-3 / (0.35e-3 / 1.959964), rel=1e-6)
