@@ -13,6 +13,8 @@ from dataclasses import field as _field
 from types import MappingProxyType
 from typing import Any, Mapping
 
+from .vocabulary import COUNT_WORDS
+
 STATUSES = ("pass", "warn", "fail", "skip")
 SCALES = ("linear", "log10")
 
@@ -188,6 +190,9 @@ class Report:
         return pd.DataFrame(rows)
 
     def __str__(self) -> str:
-        from .render.text import render_text
-
-        return render_text(self)
+        """The verdict in one line ("Title: inconsistent (1 flagged, 0 noted, 5 agree, 0 not
+        checked)"); the terminal report itself is ``checker.render.text.render_text``, which
+        this layer does not import."""
+        c = self.counts()
+        tally = ", ".join(f"{c[s]} {COUNT_WORDS[s]}" for s in ("fail", "warn", "pass", "skip"))
+        return f"{self.title}: {self.verdict} ({tally})"

@@ -66,6 +66,9 @@ CORRECTION_NAMES = {"gross-vitells": "Gross-Vitells", "sidak": "Sidak", "bonferr
 # Metrics and goodness-of-fit tests, as the raw-data pages name them.
 METRIC_NAMES = {"linear-xeb": "linear XEB", "log-xeb": "log XEB", "heavy-output": "heavy output"}
 FIT_TEST_NAMES = {"kolmogorov-smirnov": "Kolmogorov-Smirnov", "cramer-von-mises": "Cramer-von Mises"}
+# How a bootstrap resampled the data.
+RESAMPLING_NAMES = {"circuits": "whole circuits resampled", "binned": "samples resampled by value bins",
+                    "binomial": "binomial draws of the heavy count"}
 
 # Conventions briefly, as a check's message names the one it used: "one-sided, statistical error only".
 _CONVENTION_BRIEF = {

@@ -29,7 +29,7 @@ from typing import Iterator
 from ..claim.model import Claim
 from ..report import Finding, Shown, Span
 from .no_estimate import no_estimate
-from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval, proportion_intervals
+from ..stats.binomial_intervals import INTERVAL_METHODS, NAMES, proportion_interval, proportion_intervals
 from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.granularity import granularity
 from ..stats.interval import sigma_from_interval, z_for_level
@@ -162,11 +162,11 @@ def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
         """Methods reproducing both bounds at ``lev``, closest first, and each
         method's interval to show."""
         found, shown = [], {}
-        for m in METHODS:
+        for m in INTERVAL_METHODS:
             off, at = evaluate(m, lev)
             shown[m] = {"low": at[0], "high": at[1]}
             if off <= slack:
-                found.append((off, METHODS.index(m), m))
+                found.append((off, INTERVAL_METHODS.index(m), m))
         return [m for _, _, m in sorted(found)], shown
 
     agreeing, shown = matches(level)

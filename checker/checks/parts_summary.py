@@ -22,7 +22,7 @@ import numpy as np
 
 from ..claim.model import Claim, Reported
 from ..stats.combination_ranges import CombinationRanges, PartsBox
-from ..stats.combine import METHODS, combine, spread_error
+from ..stats.combine import COMBINATION_METHODS, combine, spread_error
 from ..stats.heterogeneity import Heterogeneity, cochran_q, heterogeneity, log_p_chi2, scale_factor
 from ..vocabulary import COMBINATION_MEANS as METHOD_WORDS  # noqa: F401  (the checks read it here)
 from ..wording import like
@@ -150,7 +150,7 @@ def parts_summary(claim: Claim) -> PartsSummary | None:
     samples = box.n.tolist() if box.n is not None else None
     s_factor = scale_factor(cochran_q(estimates, errors), k - 1) if errors is not None else None
     methods = {}
-    for method in METHODS:
+    for method in COMBINATION_METHODS:
         try:
             c = combine(method, estimates, errors, samples)
         except ValueError:

@@ -33,7 +33,7 @@ from typing import Iterator
 
 from ..claim.model import Claim, PrintedRate
 from ..report import Finding, Shown, Span
-from ..stats.binomial_intervals import METHODS, NAMES, proportion_interval
+from ..stats.binomial_intervals import INTERVAL_METHODS, NAMES, proportion_interval
 from ..stats.confusion import CELLS, DEFINITIONS, MARGINS, NUMERATORS, margins, rate_fraction, total
 from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.precision import agrees, gap
@@ -88,12 +88,12 @@ def _value_finding(claim: Claim, rate: PrintedRate, table: dict[str, int]) -> Fi
 
 def _matching(k: float, n: int, iv, level: float, slack: float) -> tuple[list[str], dict]:
     found, shown = [], {}
-    for m in METHODS:
+    for m in INTERVAL_METHODS:
         lo, hi = proportion_interval(k, n, level, m)
         shown[m] = (lo, hi)
         off = max(gap(iv.low.bounds, (lo, lo)), gap(iv.high.bounds, (hi, hi)))
         if off <= slack:
-            found.append((off, METHODS.index(m), m))
+            found.append((off, INTERVAL_METHODS.index(m), m))
     return [m for _, _, m in sorted(found)], shown
 
 

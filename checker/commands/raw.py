@@ -13,7 +13,7 @@ HELP = "re-derive an estimate from raw per-sample data and test the model it lea
 DESCRIPTION = (HELP + ". DATA is CSV, NPY, NPZ or Parquet with one row per sample: probability (the ideal "
                "probability of the observed outcome), and optionally circuit and heavy (0/1).")
 # Kept here rather than imported so that building the parser stays light.
-METRICS = ("linear-xeb", "log-xeb", "heavy-output")
+RAW_METRICS = ("linear-xeb", "log-xeb", "heavy-output")
 DEFAULT_REPLICATES = 10_000
 DEFAULT_FIT_SAMPLE = 100_000
 # Limits (README, "Limits"): replicates, and rows kept for the goodness-of-fit tests.
@@ -25,7 +25,7 @@ def add_parser(sub) -> None:
     p = sub.add_parser("raw", help=HELP, description=DESCRIPTION)
     p.add_argument("data", metavar="DATA", help="raw data file (.csv, .npy, .npz, .parquet)")
     p.add_argument("--claim", metavar="CLAIM", help="claim file whose printed numbers to hold against the data")
-    p.add_argument("--metric", choices=METRICS, help="headline metric (default: the claim's)")
+    p.add_argument("--metric", choices=RAW_METRICS, help="headline metric (default: the claim's)")
     p.add_argument("--qubits", type=_whole(1, "qubits"), metavar="N", help="qubits; D = 2**N (default: the claim's)")
     p.add_argument("--bootstrap", type=_whole(0, "bootstrap", MAX_REPLICATES), default=DEFAULT_REPLICATES, metavar="B",
                    help=f"bootstrap replicates, 0 for none (default {DEFAULT_REPLICATES:,}, at most {MAX_REPLICATES:,})")
@@ -60,9 +60,9 @@ def run(args, stdout, stderr) -> int:
         from ..claim import read_claim
 
         claim = read_claim(args.claim)
-        if claim.metric not in METRICS:
+        if claim.metric not in RAW_METRICS:
             raise DataError(args.claim, f"the claim's metric {claim.metric} has no raw-data estimator",
-                            f"raw data give {', '.join(METRICS)}", path="metric")
+                            f"raw data give {', '.join(RAW_METRICS)}", path="metric")
         if args.metric and args.metric != claim.metric:
             raise DataError(args.claim, f"the claim's metric is {claim.metric} but --metric says {args.metric}",
                             "leave out --metric or make the two agree", path="metric")
@@ -72,7 +72,7 @@ def run(args, stdout, stderr) -> int:
     metric = args.metric or (claim.metric if claim else None)
     qubits = args.qubits or (claim.qubit_count if claim else None)
     if metric is None:
-        raise DataError(args.data, "no metric given", f"give --metric ({', '.join(METRICS)}) or --claim")
+        raise DataError(args.data, "no metric given", f"give --metric ({', '.join(RAW_METRICS)}) or --claim")
     if qubits is None:
         raise DataError(args.data, "the number of qubits is not known", "give --qubits N (or a claim with qubits)")
     threshold = args.threshold

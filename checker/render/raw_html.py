@@ -21,10 +21,11 @@ from html import escape
 from typing import Iterable, Sequence
 
 from ..report import Finding, Report
-from .html import _verdict_panel, figure_html, html_page, status_mark, table_html
+from .page import figure_html, html_page, status_mark, table_html, tile, verdict_panel
 from ..wording import num, p_cell
 from .notes import one_line, title_of
-from .raw_text import AT_WORDS, METRIC_WORDS, TEST_WORDS, _visible
+from ..vocabulary import RESAMPLING_NAMES
+from .raw_text import AT_WORDS, METRIC_WORDS, TEST_WORDS, visible_findings
 
 MAX_CIRCUIT_ROWS = 500  # beyond this the table is cut; --json has them all
 
@@ -37,13 +38,6 @@ RAW_TITLES = {
     "raw-model": "Porter-Thomas model of the raw data",
     "raw-rerun": "Claim checks on the raw data's numbers",
 }
-_RESAMPLING_WORDS = {"circuits": "whole circuits resampled", "binned": "samples resampled by value bins",
-                     "binomial": "binomial draws of the heavy count"}
-
-
-def _tile(name: str, value: str) -> str:
-    return (f'<div class="cc-tile"><span class="cc-name">{escape(name)}</span>'
-            f'<span class="cc-value">{escape(one_line(value))}</span></div>')
 
 
 def _data_section(result) -> str:
@@ -52,7 +46,7 @@ def _data_section(result) -> str:
              ("headline metric", METRIC_WORDS.get(result.metric, result.metric)), ("seed", str(result.seed))]
     if result.threshold is not None:
         tiles.append(("threshold", num(result.threshold, 4)))
-    out = ['<div class="cc-tiles">' + "".join(_tile(n, v) for n, v in tiles) + "</div>"]
+    out = ['<div class="cc-tiles">' + "".join(tile(n, v) for n, v in tiles) + "</div>"]
     rows = []
     for name, est in result.combined.items():
         label = METRIC_WORDS.get(name, name) + (" (headline)" if name == result.metric else "")
@@ -132,7 +126,7 @@ def _bootstrap_section(result) -> str:
             ["basic interval", f"{num(b.basic_low, 4)} to {num(b.basic_high, 4)}"],
             ["standard deviation of the replicates", num(b.sd)],
             ["replicates", f"{b.replicates:,}"],
-            ["resampling", _RESAMPLING_WORDS.get(b.resampling, b.resampling)],
+            ["resampling", RESAMPLING_NAMES.get(b.resampling, b.resampling)],
             ["seed", str(b.seed)]]
     if b.resampling == "binned":
         rows.append(["within-bin share of the variance", num(b.within_share, 2)])
@@ -198,7 +192,7 @@ def _brief(findings: Iterable[Finding]) -> str:
 
 
 def _findings_section(findings: Sequence[Finding]) -> str:
-    shown, same = _visible(findings)
+    shown, same = visible_findings(findings)
     raised = [f for f in shown if f.status in ("fail", "warn")]
     rest = [f for f in shown if f.status in ("pass", "skip")]
     out = []
@@ -251,7 +245,7 @@ def render_raw_html(result, report: Report | Sequence[Finding] | None = None) ->
     if report is not None and report.file:
         bits.append(f"claim {report.file}")
     bits.append(f"metric {name}")
-    banner = _verdict_panel(report) if report is not None else ""
+    banner = verdict_panel(report) if report is not None else ""
     return html_page(title, sections, subtitle=" · ".join(bits), banner=banner,
                      kicker="claimcheck raw-data report")
 

@@ -16,8 +16,9 @@ from .markdown import md
 from ..vocabulary import CAUTION, STATUS_WORDS
 from ..wording import num, p_equals
 from .notes import summary_lines, title_of
-from .raw_html import RAW_TITLES, _RESAMPLING_WORDS
-from .raw_text import METRIC_WORDS, TEST_WORDS, _visible
+from ..vocabulary import RESAMPLING_NAMES
+from .raw_html import RAW_TITLES
+from .raw_text import METRIC_WORDS, TEST_WORDS, visible_findings
 
 _AT = {"fitted": "the fitted F", "threshold": "the threshold F", "zero": "F"}
 
@@ -64,13 +65,13 @@ def render_raw_markdown(result, report: Report | Sequence[Finding] | None = None
                      f"{p_equals(t.p_value)}")
     b = result.bootstrap
     if b is not None:
-        lines.append(f"- Bootstrap ({b.replicates:,} replicates, {_RESAMPLING_WORDS.get(b.resampling, b.resampling)}, "
+        lines.append(f"- Bootstrap ({b.replicates:,} replicates, {RESAMPLING_NAMES.get(b.resampling, b.resampling)}, "
                      f"seed {b.seed}): {num(100 * b.level, 3)}% {b.interval} interval {num(b.low, 4)} to "
                      f"{num(b.high, 4)}")
     if result.fits or result.goodness_of_fit or b is not None:
         lines.append("")
     if report is not None:
-        shown, _ = _visible(report.findings)
+        shown, _ = visible_findings(report.findings)
         raised = [f for f in shown if f.status in ("fail", "warn")]
         lines += ["## Against the claim", ""]
         if raised:

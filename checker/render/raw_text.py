@@ -70,7 +70,7 @@ def render_raw_text(result) -> str:
     if result.findings is not None:
         width = max((len(f.check) for f in result.findings), default=8)
         lines += ["", f"Against the claim {result.claim_file}:"]
-        shown, same = _visible(result.findings)
+        shown, same = visible_findings(result.findings)
         for f in shown:
             lines.append(f"{STATUS_MARKS[f.status]} {f.check:<{width}}  {f.message}")
         if same:
@@ -87,7 +87,7 @@ def render_raw_text(result) -> str:
 RAW_PREFIX = "With the raw data's numbers: "
 
 
-def _visible(findings):
+def visible_findings(findings):
     """Findings to print: a claim check rerun on the raw numbers is left out
     when it says exactly what the printed-number run said."""
     printed: dict = {}

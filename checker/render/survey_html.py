@@ -7,11 +7,11 @@ from __future__ import annotations
 import math
 from html import escape
 
-from .html import CSP
+from .page import CSP
 
 from ..vocabulary import CAUTION_SHORT
 from ..wording import plural
-from .survey_text import _verb, frame_records
+from .survey_text import verb, frame_records
 
 _COLUMNS = (
     ("source", "source"), ("title", "claim"), ("verdict", "verdict"), ("failed_checks", "flagged checks"),
@@ -60,8 +60,8 @@ def render_batch_html(frame, summary: dict) -> str:
         f"{plural(summary['unusable'], summary.get('unit', 'row'))} could not be used.",
         f"Verdicts: {v['consistent']:,} consistent, {v['inconsistent']:,} inconsistent, "
         f"{v['incomplete']:,} incomplete.",
-        f"Of {plural(need, 'claim')} that {_verb(need, 'state')} a required sigma, "
-        f"{clear['recomputed']:,} {_verb(clear['recomputed'], 'clear')} it as recomputed, "
+        f"Of {plural(need, 'claim')} that {verb(need, 'state')} a required sigma, "
+        f"{clear['recomputed']:,} {verb(clear['recomputed'], 'clear')} it as recomputed, "
         f"{clear['holm']:,} after Holm and {clear['bh']:,} after Benjamini-Hochberg adjustment across "
         f"{plural(summary['tested'], 'recomputed p-value')}.",
     ]

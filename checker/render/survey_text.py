@@ -13,7 +13,7 @@ from .json import dumps
 SHOW_AT_MOST = 20
 
 
-def _verb(n: int, many: str, one: str | None = None) -> str:
+def verb(n: int, many: str, one: str | None = None) -> str:
     """The verb agreeing with a count: "1 claim states", "2 claims state"."""
     return (one or many + "s") if n == 1 else many
 
@@ -31,9 +31,9 @@ def render_batch_text(frame, summary: dict) -> str:
     need = summary["with_required_sigma"]
     clear = summary["clear_required_sigma"]
     if need:
-        lines.append(f"required sigma: {plural(need, 'claim')} {_verb(need, 'state')} one and "
-                     f"{_verb(need, 'have', 'has')} a recomputed significance; {clear['recomputed']:,} "
-                     f"{_verb(clear['recomputed'], 'clear')} it as recomputed, {clear['holm']:,} after Holm and "
+        lines.append(f"required sigma: {plural(need, 'claim')} {verb(need, 'state')} one and "
+                     f"{verb(need, 'have', 'has')} a recomputed significance; {clear['recomputed']:,} "
+                     f"{verb(clear['recomputed'], 'clear')} it as recomputed, {clear['holm']:,} after Holm and "
                      f"{clear['bh']:,} after Benjamini-Hochberg adjustment across "
                      f"{plural(summary['tested'], 'recomputed p-value')}")
     elif summary["tested"]:

@@ -25,7 +25,7 @@ from dataclasses import dataclass
 import numpy as np
 
 # Our short names -> statsmodels' method names (the tests' reference).
-METHODS = {"holm": "holm", "bh": "fdr_bh"}
+ADJUSTMENTS = {"holm": "holm", "bh": "fdr_bh"}
 
 
 @dataclass(frozen=True)
@@ -97,8 +97,8 @@ def adjust_p_values(p_values, method: str) -> np.ndarray:
     ValueError
         For an unknown method or a p-value outside [0, 1].
     """
-    if method not in METHODS:
-        raise ValueError(f"method must be one of {sorted(METHODS)}, got {method!r}")
+    if method not in ADJUSTMENTS:
+        raise ValueError(f"method must be one of {sorted(ADJUSTMENTS)}, got {method!r}")
     p = np.asarray(p_values, dtype=float)
     finite = np.isfinite(p)
     if np.any((p[finite] < 0) | (p[finite] > 1)):
@@ -128,7 +128,7 @@ def adjust_log_p_values(log_p) -> Adjustment:
     m = int(finite.sum())
     logs = {}
     adjusted = {}
-    for method in METHODS:
+    for method in ADJUSTMENTS:
         lq = np.full(log_p.shape, np.nan)
         if m:
             lq[finite] = _log_adjusted(log_p[finite], method)

@@ -35,7 +35,7 @@ from scipy.special import betainccinv, betaincinv
 
 from .interval import z_for_level
 
-METHODS = ("wald", "wilson", "clopper-pearson", "agresti-coull", "jeffreys")
+INTERVAL_METHODS = ("wald", "wilson", "clopper-pearson", "agresti-coull", "jeffreys")
 SCALAR_UP_TO = 32  # counts below which plain floats beat numpy arrays
 NAMES = {"wald": "Wald", "wilson": "Wilson", "clopper-pearson": "Clopper-Pearson",
          "agresti-coull": "Agresti-Coull", "jeffreys": "Jeffreys"}
@@ -43,7 +43,7 @@ NAMES = {"wald": "Wald", "wilson": "Wilson", "clopper-pearson": "Clopper-Pearson
 
 def _check(method: str, level: float) -> None:
     if method not in NAMES:
-        raise ValueError(f"method must be one of {METHODS}, got {method!r}")
+        raise ValueError(f"method must be one of {INTERVAL_METHODS}, got {method!r}")
     if not 0 < level < 1:
         raise ValueError(f"level must lie in (0, 1), got {level}")
 
@@ -127,7 +127,7 @@ def proportion_interval(count: float, n: float, level: float, method: str) -> tu
     level : float
         Confidence level in (0, 1), e.g. 0.95.
     method : str
-        One of :data:`METHODS`.
+        One of :data:`INTERVAL_METHODS`.
 
     Returns
     -------

@@ -31,7 +31,7 @@ import numpy as np
 
 from .heterogeneity import cochran_q, dersimonian_laird_tau2
 
-METHODS = ("equal", "samples", "inverse-variance", "random-effects", "paule-mandel")
+COMBINATION_METHODS = ("equal", "samples", "inverse-variance", "random-effects", "paule-mandel")
 
 
 @dataclass(frozen=True)
@@ -41,7 +41,7 @@ class Combined:
     Attributes
     ----------
     method : str
-        One of :data:`METHODS`.
+        One of :data:`COMBINATION_METHODS`.
     estimate : float
         The combined value.
     stat_error : float or None
@@ -212,7 +212,7 @@ def spread_error(estimates: Sequence[float]) -> float:
 
 def combine(method: str, estimates: Sequence[float], errors: Sequence[float] | None = None,
             samples: Sequence[float] | None = None) -> Combined | None:
-    """Combine under one of :data:`METHODS`; None when the method needs an input
+    """Combine under one of :data:`COMBINATION_METHODS`; None when the method needs an input
     that is missing (errors for the weighted fits, samples for ``samples``)."""
     if method == "equal":
         return equal_weights(estimates, errors)
@@ -226,4 +226,4 @@ def combine(method: str, estimates: Sequence[float], errors: Sequence[float] | N
         if len(estimates) < 2:
             return None
         return random_effects(estimates, errors, "dl" if method == "random-effects" else "pm")
-    raise ValueError(f"method must be one of {METHODS}, got {method!r}")
+    raise ValueError(f"method must be one of {COMBINATION_METHODS}, got {method!r}")

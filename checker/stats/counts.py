@@ -38,7 +38,7 @@ from dataclasses import dataclass
 from .log_special import log_betainc, log_gammainc_lower
 from .tails import log_p_from_sigma, sigma_from_log_p
 
-METHODS = ("exact", "asymptotic", "naive", "profile", "z_bi")
+COUNT_METHODS = ("exact", "asymptotic", "naive", "profile", "z_bi")
 # Which methods use the background's error (the others ignore it).
 WITH_BACKGROUND_ERROR = ("naive", "profile", "z_bi")
 
@@ -153,7 +153,7 @@ def z_bi(n: float, b: float, sigma_b: float) -> CountSignificance:
 
 
 def significance(method: str, n: float, b: float, sigma_b: float = 0.0) -> CountSignificance:
-    """One of :data:`METHODS` by name; the methods that do not use the
+    """One of :data:`COUNT_METHODS` by name; the methods that do not use the
     background's error ignore ``sigma_b``."""
     if method == "exact":
         return exact(n, b)
@@ -165,4 +165,4 @@ def significance(method: str, n: float, b: float, sigma_b: float = 0.0) -> Count
         return profile(n, b, sigma_b)
     if method == "z_bi":
         return z_bi(n, b, sigma_b)
-    raise ValueError(f"method must be one of {', '.join(METHODS)}, got {method!r}")
+    raise ValueError(f"method must be one of {', '.join(COUNT_METHODS)}, got {method!r}")

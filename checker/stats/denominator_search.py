@@ -28,7 +28,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .binomial_intervals import METHODS, interval_arrays, proportion_intervals
+from .binomial_intervals import INTERVAL_METHODS, interval_arrays, proportion_intervals
 from .interval import z_for_level
 
 MAX_CHECKED = 400   # N' checked one by one in a run of candidates
@@ -114,7 +114,7 @@ def _first(pred, lo: int, hi: int) -> int:
 
 def search_denominator(rate: tuple[float, float], low: tuple[float, float], high: tuple[float, float],
                        level: float, slack: float, *, margins: dict[str, int] | None = None,
-                       methods=METHODS, n_max: int = N_MAX) -> DenominatorSearch:
+                       methods=INTERVAL_METHODS, n_max: int = N_MAX) -> DenominatorSearch:
     """Denominators N' with which a method reproduces a printed interval.
 
     Parameters

@@ -24,7 +24,7 @@ from ..claim.model import build_claim
 from ..errors import ClaimcheckError
 from ..visible import visible
 from .columns import ColumnPlan
-from .table import Folder, Row, Table, read_source
+from .table import Folder, Row, SurveyTable, read_source
 
 UNUSABLE = "unusable"
 NAN = math.nan
@@ -186,9 +186,9 @@ def available_cpus() -> int:
         return os.cpu_count() or 1
 
 
-def _records(source: Table | Folder, jobs: int | None, progress) -> list:
-    items: Sequence = source.rows if isinstance(source, Table) else source.files
-    header = source.header if isinstance(source, Table) else None
+def _records(source: SurveyTable | Folder, jobs: int | None, progress) -> list:
+    items: Sequence = source.rows if isinstance(source, SurveyTable) else source.files
+    header = source.header if isinstance(source, SurveyTable) else None
     plan = ColumnPlan(header, source.name) if header is not None else None  # header problems: before any work
     total = len(items)
     if jobs is None:
@@ -316,6 +316,6 @@ def run_batch(source: Any, jobs: int | None = None,
     """
     table = read_source(source)
     records = _records(table, jobs, progress)
-    frame, summary, problems = summarize(records, table.name, "row" if isinstance(table, Table) else "file")
+    frame, summary, problems = summarize(records, table.name, "row" if isinstance(table, SurveyTable) else "file")
     problems = getattr(table, "notes", ()) + problems  # a folder's second names of one file
     return BatchResult(table.name, frame, summary, problems)

@@ -44,7 +44,7 @@ class Row(NamedTuple):
 
 
 @dataclass(frozen=True)
-class Table:
+class SurveyTable:
     name: str
     header: tuple
     rows: tuple
@@ -81,7 +81,7 @@ def cell_text(value: Any) -> str:
     return str(value)
 
 
-def read_source(source: Any) -> Table | Folder:
+def read_source(source: Any) -> SurveyTable | Folder:
     """A path (table or folder), a DataFrame, or a list of mappings.
 
     Raises
@@ -141,7 +141,7 @@ def read_folder(path: Path) -> Folder:
     return Folder(str(path), tuple(sorted(files)), tuple(notes))
 
 
-def read_table_file(path: Path) -> Table:
+def read_table_file(path: Path) -> SurveyTable:
     suffix = path.suffix.lower()
     if suffix not in TABLE_SUFFIXES:
         raise InputFileError(str(path), f"has the extension {path.suffix or '(none)'!r}",
@@ -160,7 +160,7 @@ def read_table_file(path: Path) -> Table:
     return parse_delimited(text, str(path), TABLE_SUFFIXES[suffix])
 
 
-def parse_delimited(text: str, name: str, delimiter: str = ",") -> Table:
+def parse_delimited(text: str, name: str, delimiter: str = ",") -> SurveyTable:
     """A CSV (or TSV) text: comment lines, a header, then one claim per row.
 
     The csv module rather than pandas.read_csv: a row with too many or too
@@ -209,10 +209,10 @@ def parse_delimited(text: str, name: str, delimiter: str = ",") -> Table:
                              "fix the quoting near that line", line=skipped + reader.line_num) from None
     if not rows:
         raise InputFileError(name, "holds a header but no claims", "give one claim per row below the header")
-    return Table(name, tuple(header), tuple(rows))
+    return SurveyTable(name, tuple(header), tuple(rows))
 
 
-def _read_parquet(path: Path) -> Table:
+def _read_parquet(path: Path) -> SurveyTable:
     handle = open_regular(path, "give a CSV or Parquet table, or a folder of claim files")
     try:
         if os.fstat(handle.fileno()).st_size > MAX_TABLE_BYTES:
@@ -238,7 +238,7 @@ def _read_parquet(path: Path) -> Table:
     return table_from_frame(frame, str(path))
 
 
-def table_from_frame(frame, name: str) -> Table:
+def table_from_frame(frame, name: str) -> SurveyTable:
     if len(frame) > MAX_CLAIMS:
         raise InputFileError(name, f"holds {len(frame):,} claims, more than {MAX_CLAIMS:,}", "split the table")
     header = tuple(str(c) for c in frame.columns)
@@ -246,7 +246,7 @@ def table_from_frame(frame, name: str) -> Table:
                  for i, values in enumerate(frame.itertuples(index=False, name=None)))
     if not rows:
         raise InputFileError(name, "holds no claims", "give one claim per row")
-    return Table(name, header, rows)
+    return SurveyTable(name, header, rows)
 
 
 def _flatten(mapping: Mapping, prefix: str, out: dict) -> None:
@@ -260,7 +260,7 @@ def _flatten(mapping: Mapping, prefix: str, out: dict) -> None:
             out[name] = cell_text(value)
 
 
-def table_from_mappings(mappings: Iterable[Mapping], name: str) -> Table:
+def table_from_mappings(mappings: Iterable[Mapping], name: str) -> SurveyTable:
     """Claims as mappings (nested, or with dotted keys) become a table."""
     flat = []
     for i, mapping in enumerate(mappings):
@@ -277,4 +277,4 @@ def table_from_mappings(mappings: Iterable[Mapping], name: str) -> Table:
         header.update(dict.fromkeys(row))
     columns = tuple(header)
     rows = tuple(Row(i + 1, None, tuple(row.get(c, "") for c in columns)) for i, row in enumerate(flat))
-    return Table(name, columns, rows)
+    return SurveyTable(name, columns, rows)

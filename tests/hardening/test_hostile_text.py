@@ -185,7 +185,7 @@ def test_batch_csv_neutralises_formulas_and_keeps_numbers(tmp_path):
 
 
 def test_batch_html_carries_the_same_security_policy_as_the_reports(tmp_path):
-    from checker.render.html import CSP
+    from checker.render.page import CSP
 
     out, report = tmp_path / "summary.html", tmp_path / "report.html"
     outcomes = claimcheck_many([["batch", EXAMPLES / "survey_table.csv", "--out", out],

@@ -17,7 +17,8 @@ import numpy as np
 import pytest
 
 from checker.cli import run
-from checker.render.html import figure_html, html_page, render_html, status_mark, table_html
+from checker.render.html import render_html
+from checker.render.page import figure_html, html_page, status_mark, table_html
 from checker.report import Report
 from page_tools import assert_loads_cleanly_and_draws, console_lines as _console_lines, needs_chromium, parse_page as _parse
 from page_tools import run_chromium as _chromium, yaml_quote as _yaml_quote

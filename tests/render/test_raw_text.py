@@ -7,7 +7,7 @@ import pytest
 
 from checker.raw.analysis import analyse
 from checker.raw.simulate_circuits import simulate_dataset
-from checker.render.raw_text import _visible, render_drift_text, render_raw_text
+from checker.render.raw_text import visible_findings, render_drift_text, render_raw_text
 from checker.report import Finding
 from checker.stats.drift import drift_analysis
 
@@ -36,7 +36,7 @@ def test_identical_reruns_are_folded():
     rerun = [Finding("pass", "With the raw data's numbers: Sigma agrees.", check="significance",
                      details={"numbers": "raw"}),
              Finding("pass", "With the raw data's numbers: Fine.", check="error-floor", details={"numbers": "raw"})]
-    shown, same = _visible(printed + rerun)
+    shown, same = visible_findings(printed + rerun)
     assert same == 1 and shown == printed + rerun[1:]
 
 

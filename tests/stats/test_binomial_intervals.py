@@ -8,7 +8,7 @@ import math
 import numpy as np
 import pytest
 
-from checker.stats.binomial_intervals import METHODS, proportion_interval
+from checker.stats.binomial_intervals import INTERVAL_METHODS, proportion_interval
 
 # R. G. Newcombe, "Two-sided confidence intervals for the single proportion: comparison of seven
 # methods", Stat. Med. 17, 857 (1998), Table I (from memory; statsmodels agrees to 4 decimals).
@@ -91,7 +91,7 @@ def test_jeffreys_ends_at_zero_and_one_at_the_extreme_counts():
 
 
 def test_every_method_brackets_the_estimate_and_stays_in_range():
-    for method in METHODS:
+    for method in INTERVAL_METHODS:
         for k, n in ((0, 10), (3, 10), (10, 10), (2.5, 10)):
             lo, hi = proportion_interval(k, n, 0.95, method)
             assert 0.0 <= lo <= k / n + 1e-12 and k / n - 1e-12 <= hi <= 1.0
@@ -104,7 +104,7 @@ def test_unusable_requests_are_refused(args):
         proportion_interval(*args)
 
 
-@pytest.mark.parametrize("method", METHODS)
+@pytest.mark.parametrize("method", INTERVAL_METHODS)
 def test_many_counts_in_one_call_match_one_at_a_time(method):
     from checker.stats.binomial_intervals import proportion_intervals
 
@@ -119,7 +119,7 @@ _STATSMODELS = {"wald": "normal", "wilson": "wilson", "clopper-pearson": "beta",
                 "agresti-coull": "agresti_coull", "jeffreys": "jeffreys"}
 
 
-@pytest.mark.parametrize("method", METHODS)
+@pytest.mark.parametrize("method", INTERVAL_METHODS)
 @pytest.mark.parametrize("n", [1, 2, 7, 42, 78, 263, 10_000, 10**6])
 @pytest.mark.parametrize("level", [0.5, 0.9, 0.95, 0.99, 1 - 1e-9])
 def test_every_method_matches_statsmodels(method, n, level):
@@ -151,7 +151,7 @@ def test_one_count_per_denominator_broadcasts():
     assert (low[1], high[1]) == pytest.approx(proportion_interval(35, 78, 0.95, "wald"))
 
 
-@pytest.mark.parametrize("method", METHODS)
+@pytest.mark.parametrize("method", INTERVAL_METHODS)
 def test_the_plain_float_path_matches_the_array_path(method):
     from checker.stats.binomial_intervals import interval_arrays
 

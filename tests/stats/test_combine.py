@@ -10,7 +10,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from checker.stats.combine import (METHODS, combine, equal_weights, inverse_variance, random_effects,
+from checker.stats.combine import (COMBINATION_METHODS, combine, equal_weights, inverse_variance, random_effects,
                                    sample_weights, spread_error, weighted)
 
 # BCG vaccine trials: Colditz et al., JAMA 271, 698 (1994), as printed in W. Viechtbauer,
@@ -170,7 +170,7 @@ parts = st.integers(min_value=2, max_value=12).flatmap(
 @given(parts)
 def test_weights_sum_to_one_for_every_method(p):
     x, s, n = p
-    for method in METHODS:
+    for method in COMBINATION_METHODS:
         c = combine(method, x, s, n)
         assert sum(c.weights) == pytest.approx(1.0, abs=1e-12)
         assert all(w >= 0 for w in c.weights)

@@ -7,7 +7,7 @@ import pandas as pd
 import pytest
 
 from checker.errors import InputFileError
-from checker.survey.table import (Folder, Table, cell_text, parse_delimited, read_source,
+from checker.survey.table import (Folder, SurveyTable, cell_text, parse_delimited, read_source,
                                   table_from_mappings)
 
 
@@ -78,7 +78,7 @@ def test_parquet_keeps_text_columns_and_writes_numbers_shortest(tmp_path):
     path = tmp_path / "t.parquet"
     frame.to_parquet(path)
     table = read_source(path)
-    assert isinstance(table, Table)
+    assert isinstance(table, SurveyTable)
     assert table.rows[0].cells == ("A", "4.20", "100", "0.5")
     assert table.rows[1].cells == ("B", "1e-3", "2000", "")
 

@@ -27,17 +27,17 @@ from .npy_files import open_npy
 from .npz_files import open_npz
 from .parquet_files import open_parquet
 from .table import (ALLOWED_HEAVY, ALLOWED_PROBABILITY, CHUNK_ROWS, COLUMNS, MAX_CIRCUITS, MAX_ID_CHARS, Chunk,
-                    Table)
+                    DataTable)
 
 KINDS = {".csv": "csv", ".npy": "npy", ".npz": "npz", ".parquet": "parquet", ".pq": "parquet"}
 OPENERS = {"csv": open_csv, "npy": open_npy, "npz": open_npz, "parquet": open_parquet}
 ALLOWED_FILE = "give the path of a CSV, NPY, NPZ or Parquet data file"
 
-__all__ = ["open_table", "Table", "Chunk", "CHUNK_ROWS", "COLUMNS", "KINDS", "MAX_CIRCUITS", "MAX_ID_CHARS",
+__all__ = ["open_table", "DataTable", "Chunk", "CHUNK_ROWS", "COLUMNS", "KINDS", "MAX_CIRCUITS", "MAX_ID_CHARS",
            "ALLOWED_HEAVY", "ALLOWED_PROBABILITY"]
 
 
-def open_table(path: str | os.PathLike, chunk_rows: int = CHUNK_ROWS) -> Table:
+def open_table(path: str | os.PathLike, chunk_rows: int = CHUNK_ROWS) -> DataTable:
     """Open a raw data file for chunked reading (the format from its extension).
 
     Raises

@@ -17,7 +17,7 @@ import numpy as np
 
 from ...errors import DataError
 from ...input_files import open_regular
-from .table import (ALLOWED_HEAVY, ALLOWED_PROBABILITY, Chunk, CircuitColumn, Table, columns_or_fail,
+from .table import (ALLOWED_HEAVY, ALLOWED_PROBABILITY, Chunk, CircuitColumn, DataTable, columns_or_fail,
                     first_line)
 
 ALLOWED_FILE = "give the path of a CSV, NPY, NPZ or Parquet data file"
@@ -50,7 +50,7 @@ def _read_csv(name: str, **options):
         raise
 
 
-def open_csv(name: str, chunk_rows: int) -> Table:
+def open_csv(name: str, chunk_rows: int) -> DataTable:
     import pandas as pd
 
     try:
@@ -74,7 +74,7 @@ def open_csv(name: str, chunk_rows: int) -> Table:
         raise DataError(name, "its first line holds numbers, not column names",
                         "start the file with a header line such as circuit,probability,heavy", line=1)
     known, ignored = columns_or_fail(name, cols)
-    return Table(name, "csv", known, None, ignored, chunk_rows, csv_chunks)
+    return DataTable(name, "csv", known, None, ignored, chunk_rows, csv_chunks)
 
 
 def _looks_numeric(text: str) -> bool:
@@ -85,7 +85,7 @@ def _looks_numeric(text: str) -> bool:
         return False
 
 
-def csv_chunks(table: Table) -> Iterator[Chunk]:
+def csv_chunks(table: DataTable) -> Iterator[Chunk]:
     import pandas as pd
 
     dtype = {"circuit": "category"} if table.has_circuit else None
@@ -125,7 +125,7 @@ def csv_chunks(table: Table) -> Iterator[Chunk]:
             handle.close()
 
 
-def _numeric_column(table: Table, frame, column: str, start: int) -> np.ndarray:
+def _numeric_column(table: DataTable, frame, column: str, start: int) -> np.ndarray:
     import pandas as pd
 
     values = frame[column]

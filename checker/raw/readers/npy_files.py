@@ -13,7 +13,7 @@ import numpy as np
 
 from ...errors import DataError
 from ...input_files import open_regular
-from .table import Chunk, Table, first_line
+from .table import Chunk, DataTable, first_line
 
 ALLOWED_FILE = "give the path of a CSV, NPY, NPZ or Parquet data file"
 
@@ -61,7 +61,7 @@ def check_float_dtype(name: str, dtype: np.dtype, what: str) -> None:
                         "floating-point probabilities (float32 or float64)", path=what)
 
 
-def open_npy(name: str, chunk_rows: int) -> Table:
+def open_npy(name: str, chunk_rows: int) -> DataTable:
     with open_regular(name, ALLOWED_FILE) as handle:
         shape, dtype, _ = read_npy_header(handle, name)
         offset = handle.tell()
@@ -72,10 +72,10 @@ def open_npy(name: str, chunk_rows: int) -> Table:
     if complete < rows:
         raise DataError(name, f"is truncated: its header promises {rows:,} rows but only {complete:,} are complete",
                         "give the complete file")
-    return Table(name, "npy", ["probability"], rows, [], chunk_rows, npy_chunks, offset=offset, dtype=dtype)
+    return DataTable(name, "npy", ["probability"], rows, [], chunk_rows, npy_chunks, offset=offset, dtype=dtype)
 
 
-def npy_chunks(table: Table) -> Iterator[Chunk]:
+def npy_chunks(table: DataTable) -> Iterator[Chunk]:
     """Native float64 files are read through a memory map whose pages are
     handed back (madvise DONTNEED) after each chunk: no copy, and the resident
     set stays about one chunk whatever the file size.  Other dtypes, or
@@ -90,7 +90,7 @@ def npy_chunks(table: Table) -> Iterator[Chunk]:
         yield from _npy_chunks_read(table)
 
 
-def _npy_chunks_mapped(table: Table) -> Iterator[Chunk]:
+def _npy_chunks_mapped(table: DataTable) -> Iterator[Chunk]:
     rows, offset = table.total_rows, table.state["offset"]
     page = mmap.PAGESIZE
     try:
@@ -116,7 +116,7 @@ def _npy_chunks_mapped(table: Table) -> Iterator[Chunk]:
     del values, mapping
 
 
-def _npy_chunks_read(table: Table) -> Iterator[Chunk]:
+def _npy_chunks_read(table: DataTable) -> Iterator[Chunk]:
     dtype = table.state["dtype"]
     rows = table.total_rows
     raw = np.empty(table.chunk_rows, dtype=dtype)

@@ -12,7 +12,7 @@ import numpy as np
 from ...errors import DataError
 from ...input_files import open_regular
 from .npy_files import check_float_dtype, read_npy_header, rows_of
-from .table import ALLOWED_HEAVY, COLUMNS, MAX_ID_CHARS, Chunk, Table, first_line
+from .table import ALLOWED_HEAVY, COLUMNS, MAX_ID_CHARS, Chunk, DataTable, first_line
 
 ALLOWED_FILE = "give the path of a CSV, NPY, NPZ or Parquet data file"
 # Bytes of all members together per chunk: wide fixed-width id arrays get fewer rows per chunk.
@@ -20,7 +20,7 @@ CHUNK_BYTES = 32 << 20
 _DAMAGED = (zipfile.BadZipFile, EOFError, zlib.error, OSError, NotImplementedError)
 
 
-def open_npz(name: str, chunk_rows: int) -> Table:
+def open_npz(name: str, chunk_rows: int) -> DataTable:
     handle = open_regular(name, ALLOWED_FILE)
     try:
         try:
@@ -77,11 +77,11 @@ def open_npz(name: str, chunk_rows: int) -> Table:
     ignored = [k for k in members if k not in COLUMNS]
     width = sum(headers[k][1].itemsize for k in headers)
     chunk_rows = max(1, min(chunk_rows, CHUNK_BYTES // max(width, 1)))
-    return Table(name, "npz", [k for k in COLUMNS if k in headers], rows, ignored, chunk_rows, npz_chunks,
+    return DataTable(name, "npz", [k for k in COLUMNS if k in headers], rows, ignored, chunk_rows, npz_chunks,
                  members={k: members[k] for k in headers}, dtypes={k: headers[k][1] for k in headers})
 
 
-def npz_chunks(table: Table) -> Iterator[Chunk]:
+def npz_chunks(table: DataTable) -> Iterator[Chunk]:
     name = table.path
     rows = table.total_rows
     dtypes = table.state["dtypes"]

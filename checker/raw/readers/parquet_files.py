@@ -13,7 +13,7 @@ import numpy as np
 
 from ...errors import DataError
 from ...input_files import open_regular
-from .table import (ALLOWED_CIRCUIT, ALLOWED_HEAVY, ALLOWED_PROBABILITY, COLUMNS, Chunk, CircuitColumn, Table,
+from .table import (ALLOWED_CIRCUIT, ALLOWED_HEAVY, ALLOWED_PROBABILITY, COLUMNS, Chunk, CircuitColumn, DataTable,
                     columns_or_fail, first_line)
 
 ALLOWED_FILE = "give the path of a CSV, NPY, NPZ or Parquet data file"
@@ -40,7 +40,7 @@ def _number_type_ok(pa, kind) -> bool:
     return pa.types.is_floating(kind) or pa.types.is_integer(kind) or pa.types.is_boolean(kind)
 
 
-def open_parquet(name: str, chunk_rows: int) -> Table:
+def open_parquet(name: str, chunk_rows: int) -> DataTable:
     pq = _pyarrow(name)
     import pyarrow as pa
 
@@ -59,10 +59,10 @@ def open_parquet(name: str, chunk_rows: int) -> Table:
         if not ok:
             allowed = {"circuit": ALLOWED_CIRCUIT, "probability": ALLOWED_PROBABILITY, "heavy": ALLOWED_HEAVY}[key]
             raise DataError(name, f"the {key} column holds {kind} values", allowed, path=key)
-    return Table(name, "parquet", known, rows, ignored, chunk_rows, parquet_chunks)
+    return DataTable(name, "parquet", known, rows, ignored, chunk_rows, parquet_chunks)
 
 
-def parquet_chunks(table: Table) -> Iterator[Chunk]:
+def parquet_chunks(table: DataTable) -> Iterator[Chunk]:
     pq = _pyarrow(table.path)
     import pyarrow as pa
 

@@ -40,7 +40,7 @@ class Chunk:
 
     start: int  # 0-based index of the first row
     probability: np.ndarray  # float64
-    circuit: np.ndarray | None  # int64 codes into Table.labels
+    circuit: np.ndarray | None  # int64 codes into DataTable.labels
     heavy: np.ndarray | None  # float64, 0 or 1
 
     def __len__(self) -> int:
@@ -59,7 +59,7 @@ class CircuitColumn:
 class CircuitCodes:
     """Circuit ids -> 0, 1, 2, ... in order of first appearance, across chunks."""
 
-    def __init__(self, table: "Table"):
+    def __init__(self, table: "DataTable"):
         self.table = table
         self.index: dict = {}
         self.labels: list = []
@@ -103,7 +103,7 @@ def _key(value):
     return value.item() if hasattr(value, "item") else value
 
 
-class Table:
+class DataTable:
     """An opened data file; iterate :meth:`chunks` once.
 
     Attributes
@@ -123,7 +123,7 @@ class Table:
     """
 
     def __init__(self, path: str, kind: str, columns, total_rows, ignored, chunk_rows,
-                 reader: Callable[["Table"], Iterator[Chunk]], **state):
+                 reader: Callable[["DataTable"], Iterator[Chunk]], **state):
         self.path = path
         self.kind = kind
         self.has_circuit = "circuit" in columns
