@@ -272,3 +272,15 @@ def test_the_systematic_added_linearly_is_a_recognised_convention(write_claim):
     assert "added linearly" in sig["message"]
     status, out, _ = cli("check", write_claim(text % ", systematics: linear"), "--json", "--only", "significance")
     assert status == 0 and [f["status"] for f in strict_json(out)["findings"]] == ["pass"]
+
+
+def test_a_printed_p_of_zero_is_flagged_by_bounds_and_not_compared(write_claim):
+    text = ("title: Invented claim\nmetric: mean\nestimate: 0.55\nstat_error: 0.01\nthreshold: 0.5\n"
+            "significance: {sigma: 5.0, p_value: 0.000}\n")
+    status, out, _ = cli("check", write_claim(text), "--json")
+    found = strict_json(out)["findings"]
+    (zero,) = [f for f in found if f["check"] == "bounds"]
+    assert status == 0 and zero["status"] == "warn" and "p < 0.001" in zero["message"]
+    sig = [f for f in found if f["check"] == "significance"]
+    assert not any("matching the printed p" in f["message"] for f in sig)
+    assert [f["status"] for f in sig if f["field"] == "significance.p_value"] == ["skip"]

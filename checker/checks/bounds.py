@@ -12,7 +12,7 @@ from typing import Iterator
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown
 from ..wording import num
-from .common import is_probability, metric_of
+from .common import is_probability, metric_of, printed_zero
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 
@@ -98,10 +98,14 @@ def check(claim: Claim) -> Iterator[Finding]:
     p = claim.significance.p_value
     if p is not None:
         checked += 1
-        if p.value == 0 and p.high > 0:
-            found.append(Finding("warn", f"The p-value is printed as {p.text}, which stands for p below "
-                                 f"{num(p.high)}; a p-value is never zero, so print it as a bound "
-                                 f"(p < {num(p.high)}).", details={"field": p.path}, **_on(p, "p_zero")))
+        if printed_zero(p):
+            # The unit of the last printed digit: "0.000" stands for [0, 0.0005), one unit 0.001.
+            unit = 2 * p.high
+            meant = (f"most likely it meant p below the last printed digit, p < {num(unit)}" if unit < 1
+                     else "most likely it meant a p too small to print, to be written as a bound (p < ...)")
+            found.append(Finding("warn", f"The p-value is printed as {p.text}; a p of exactly 0 is impossible: "
+                                 f"{meant}.", details={"field": p.path, "last_digit": unit},
+                                 **_on(p, "p_zero")))
         elif not is_probability(p):
             found.append(Finding("fail", f"The p-value is printed as {p.text}; a p-value lies in (0, 1] "
                                  "(print a bound such as p < 1e-300 for one too small to write).",
@@ -158,8 +162,8 @@ SPEC = CheckSpec(
         "error_sign": _RANGE,
         "threshold_range": _RANGE,
         "p_range": _RANGE,
-        "p_zero": Statement(question=("Could the authors print {what} as a bound (p < ...)? A p-value is "
-                                      "never zero.")),
+        "p_zero": Statement(question=("Could the authors print {what} as a bound (p < ...)? A p-value of "
+                                      "exactly zero is impossible.")),
         "interval_order": Statement(question=("Could the authors confirm the interval's ends? As printed "
                                               "the low end lies above the high end.")),
         "outside_interval": Statement(question=("Could the authors confirm {what}? As printed it lies "

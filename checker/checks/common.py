@@ -60,6 +60,12 @@ def is_probability(rep: Reported) -> bool:
     return rep.log_high > -math.inf and not math.isnan(rep.log_high) and rep.value <= 1.0
 
 
+def printed_zero(rep: Reported) -> bool:
+    """A p printed as exactly zero ("0", "0.000"), not one that underflows the double range
+    (1e-400 has a zero value but a zero upper end too) nor a bound ("< 0.001")."""
+    return rep.value == 0 and rep.high > 0
+
+
 def finite_or_none(x: float | None) -> float | None:
     if x is None or not math.isfinite(x):
         return None

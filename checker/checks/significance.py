@@ -32,7 +32,7 @@ from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
 from ..vocabulary import convention_text
 from ..wording import num, p_range_text, span_text
-from .common import above, is_probability, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
+from .common import above, is_probability, printed_zero, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 LN10 = math.log(10.0)
@@ -270,13 +270,19 @@ def _differs(conv: dict, stated: dict) -> dict:
     return {k: conv[k] for k in KEYS if conv[k] != stated[k]}
 
 
+def _p_skipped(p, statement: str) -> Finding:
+    """A printed p that bounds flags (exactly 0, or outside (0, 1]) is not compared: say so."""
+    return Finding("skip", f"The printed p = {p.text} is not compared: the physical-range check flags it.",
+                   details={"skipped_input": p.path}, field=p.path, statement=statement, printed=Shown.of(p))
+
+
 def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
     sig = claim.significance
     sigma, p = sig.sigma, sig.p_value
     if sigma is None or p is None:
         return
-    if not is_probability(p):
-        return  # bounds reports it
+    if not is_probability(p) or printed_zero(p):
+        return  # bounds flags it; the comparison with the inputs says it was skipped
     printed_log = log_bounds(p)
 
     def implied(sided):
@@ -375,7 +381,9 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                        {**details, "quantity": "sigma"},
                        {"field": sig.sigma.path, "statement": "sigma_vs_inputs", "printed": Shown.of(sig.sigma),
                         "recomputed_range": Span(*mine.sigma), "tolerance": tol}, sig.stated)
-    if sig.p_value is not None and is_probability(sig.p_value):
+    if sig.p_value is not None and not (is_probability(sig.p_value) and not printed_zero(sig.p_value)):
+        yield _p_skipped(sig.p_value, "p_vs_inputs")
+    elif sig.p_value is not None:
         p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
         yield _compare(f"Printed p = {sig.p_value.text}", sig.p_value, log_bounds(sig.p_value), results, mine,
                        lambda r: r.log_p, lambda a, b: agrees_log(a, b, tol),
