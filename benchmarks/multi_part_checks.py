@@ -3,7 +3,7 @@
 1. `claimcheck check` end to end (process start included) on a claim without parts (the baseline,
    which must not load statsmodels), on the 12-circuit example and on a generated 100-part claim.
 2. In process, with imports already paid: the time to check claims of 10, 50 and 200 parts,
-   against the 10-part one (the one-at-a-time precision propagation makes it grow as K^2).
+   against the 10-part one.
 Run: .venv/bin/python benchmarks/multi_part_checks.py
 """
 

@@ -31,7 +31,9 @@ from typing import Iterator
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats import comparison as cmp
+from ..stats.binomial import binomial_variance
 from ..stats.precision import agrees, agrees_log, over_box
+from ..stats.ranges import binomial_variance_range, sampling_error_range
 from ..stats.tails import log_p_from_sigma
 from ..wording import num, p_range_text, span_text
 from .common import is_probability, log_bounds
@@ -56,7 +58,8 @@ def _error_box(value: Reported, error: Reported | None, samples: Reported | None
     if error is not None and error.value > 0:
         return error.bounds, "printed"
     if proportion and samples is not None:
-        box = over_box(lambda p, n: cmp.proportion_error(p, n), [value.bounds, samples.bounds])
+        # sqrt(p (1 - p)/n) peaks inside the interval when it holds 1/2: not a corner formula.
+        box = sampling_error_range(binomial_variance, binomial_variance_range, value.bounds, samples.bounds)
         if math.isfinite(box[0]) and box[1] > 0:
             return box, "from samples"
     return None, ""

@@ -49,6 +49,7 @@ from .combine import tau2_paule_mandel
 from .ranges import Range, _ss_max, _ss_min, bounded_range, weighted_mean_range, weighted_ss_range
 
 ALL_VERTICES = 12  # free inputs up to which every vertex is a starting candidate
+SEARCH_LIMIT = 32  # free inputs beyond which the candidates alone are evaluated, without a search
 CLIMBS = 3  # beyond ALL_VERTICES: vertex climbs from this many best candidates each way
 PART_VERTICES = 10  # parts up to which every vertex of the estimates (and of the errors) is one
 
@@ -286,8 +287,10 @@ class CombinationRanges:
             return rows
 
         starts = [b.s, b.s_low, b.s_high]
-        low = self._search(side("min"), b.s_low, b.s_high, starts, vertex_limit=PART_VERTICES)[0]
-        high = self._search(side("max"), b.s_low, b.s_high, starts, vertex_limit=PART_VERTICES)[1]
+        # Each point costs an exact Q range, so the search stops at fewer inputs.
+        limit = SEARCH_LIMIT // 2
+        low = self._search(side("min"), b.s_low, b.s_high, starts, PART_VERTICES, limit)[0]
+        high = self._search(side("max"), b.s_low, b.s_high, starts, PART_VERTICES, limit)[1]
         return (low, high)
 
     def _searched(self, method: str, quantity: str) -> Range:
@@ -360,7 +363,8 @@ class CombinationRanges:
         return point, current
 
     @staticmethod
-    def _search(fn_rows, low, high, starts, vertex_limit: int = ALL_VERTICES) -> Range:
+    def _search(fn_rows, low, high, starts, vertex_limit: int = ALL_VERTICES,
+                search_limit: int = SEARCH_LIMIT) -> Range:
         """Candidates (the starts and, for small boxes, every vertex) evaluated in
         one batch; a bounded local search from the best two in each direction."""
         low, high = np.asarray(low, float), np.asarray(high, float)
@@ -377,6 +381,9 @@ class CombinationRanges:
         ok = np.isfinite(values)
         if not ok.any():
             return (math.nan, math.nan)
+        if free.size > search_limit:
+            # Many parts: the candidates alone (README, "Printed precision").
+            return (float(values[ok].min()), float(values[ok].max()))
         lowest = [rows[i] for i in np.argsort(np.where(ok, values, np.inf))[:CLIMBS] if ok[i]]
         highest = [rows[i] for i in np.argsort(np.where(ok, -values, np.inf))[:CLIMBS] if ok[i]]
         if free.size > vertex_limit:

@@ -60,7 +60,7 @@ import numpy as np
 Range = tuple[float, float]
 NAN_RANGE: Range = (math.nan, math.nan)
 EXHAUSTIVE_PARTS = 12  # 2**12 vertices, evaluated as one numpy array
-GRID = 16  # intervals of the grid that brackets a scalar function's interior extrema
+GRID = 4  # intervals of the grid that brackets a scalar function's interior extrema
 
 
 def _finite(v) -> bool:
@@ -87,18 +87,22 @@ def vertex_range(fn: Callable[..., float | None], boxes: Sequence[tuple[float, f
 def scalar_range(fn: Callable[[float], float | None], low: float, high: float, grid: int = GRID) -> Range:
     """Range of a function of one input over [low, high].
 
-    Method: the ends and a grid of ``grid`` intervals; every grid point that is
-    a local extremum among its neighbours is refined by Brent's bounded method
-    (scipy.optimize.minimize_scalar) on its two neighbouring intervals.  Exact
-    (to the optimiser's tolerance) for any function whose extrema are at least
-    one grid interval apart; the metric models' variances have at most one.
+    Method: the ends, a point just inside each end and a grid of ``grid``
+    intervals; every point that is a local extremum among its neighbours is
+    refined by Brent's bounded method (scipy.optimize.minimize_scalar) on its two
+    neighbouring intervals.  Exact (to the optimiser's tolerance) for any
+    function whose interior extrema are at least one grid interval apart; the
+    metric models' variances have at most one.
     """
     if not (math.isfinite(low) and math.isfinite(high)):
         return NAN_RANGE
     if low == high:
         v = fn(low)
         return (float(v), float(v)) if _finite(v) else NAN_RANGE
-    xs = np.linspace(low, high, grid + 1)
+    # A grid, and a point just inside each end: an extremum between an end and its neighbour
+    # then shows as a local extremum of the grid too.
+    inner = 1e-7 * (high - low)
+    xs = np.unique(np.concatenate((np.linspace(low, high, grid + 1), [low + inner, high - inner])))
     ys = []
     for x in xs:
         v = fn(float(x))
@@ -108,7 +112,7 @@ def scalar_range(fn: Callable[[float], float | None], low: float, high: float, g
         return NAN_RANGE
     lo, hi = float(np.nanmin(ys)), float(np.nanmax(ys))
     interior = []
-    for i in range(1, grid):
+    for i in range(1, xs.size - 1):
         a, b, c = ys[i - 1], ys[i], ys[i + 1]
         if not (math.isfinite(a) and math.isfinite(b) and math.isfinite(c)):
             continue
@@ -228,15 +232,20 @@ def _ss_max(a: np.ndarray, b: np.ndarray, w: np.ndarray) -> float:
         pick = ((np.arange(2 ** k)[:, None] >> np.arange(k)) & 1).astype(bool)
         return float(np.max(_ss(np.where(pick, b, a), w)))
     # Threshold vertices: the parts sorted by midpoint, the lower ones at their lower end.
+    # Q = sum w x^2 - (sum w x)^2 / sum w for every split at once, from cumulative sums.
     order = np.argsort(0.5 * (a + b), kind="stable")
-    best_x, best = None, -math.inf
-    for split in range(k + 1):
-        x = np.empty(k)
-        x[order[:split]] = a[order[:split]]
-        x[order[split:]] = b[order[split:]]
-        v = float(_ss(x, w))
-        if v > best:
-            best, best_x = v, x
+    wa, wb = w[order] * a[order], w[order] * b[order]
+    lower1 = np.concatenate(([0.0], np.cumsum(wa)))
+    lower2 = np.concatenate(([0.0], np.cumsum(wa * a[order])))
+    upper1 = np.concatenate((np.cumsum(wb[::-1])[::-1], [0.0]))
+    upper2 = np.concatenate((np.cumsum((wb * b[order])[::-1])[::-1], [0.0]))
+    first = lower1 + upper1
+    q_splits = lower2 + upper2 - first * first / w.sum()
+    split = int(np.argmax(q_splits))
+    best_x = np.empty(k)
+    best_x[order[:split]] = a[order[:split]]
+    best_x[order[split:]] = b[order[split:]]
+    best = float(_ss(best_x, w))
     # Single flips: each coordinate to the end farther from the others' weighted mean.
     for _ in range(k):
         wsum = w.sum()
