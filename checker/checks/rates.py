@@ -39,7 +39,7 @@ from ..stats.denominator_search import effective_sample_size, search_denominator
 from ..stats.precision import agrees, gap
 from ..wording import like
 from .interval import OTHER_LEVELS, level_text
-from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
+from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement, SummaryTable
 
 
 def _words(name: str) -> str:
@@ -204,11 +204,45 @@ def check(claim: Claim) -> Iterator[Finding]:
             yield _interval_finding(claim, rate, table)
 
 
+def summary(findings) -> SummaryTable | None:
+    """Each printed rate against what the table of counts gives, and what its
+    printed interval is (the method that gives it, or what reproduces it)."""
+    rows: dict[str, list[str]] = {}
+    marks = {"pass": "agrees", "fail": "flagged", "warn": "note", "skip": "not checked", "info": "shown"}
+    for f in findings:
+        if f.statement == "rate_value" and "denominator" in f.details:
+            name = f.field.split(".")[1]
+            k, n = f.details["numerator"], f.details["denominator"]
+            given = f"{k}/{n} = {like(k / n, f.printed.text if f.printed else None)}" if n else "no cases"
+            rows[name] = [name.replace("_", " "), f.printed.text if f.printed else "", given, marks[f.status], "", ""]
+        elif f.statement in ("rate_interval", "rate_design_effect") and f.field:
+            name = f.field.split(".")[1]
+            row = rows.setdefault(name, [name.replace("_", " "), "", "", "", "", ""])
+            row[4] = f.printed.text if f.printed else ""
+            agreeing = f.details.get("agreeing") or []
+            if agreeing:
+                row[5] = NAMES[agreeing[0]]
+            elif f.reproduced_by and "denominator" in f.reproduced_by:
+                row[5] = f"{NAMES[f.reproduced_by['method']]} with N = {f.reproduced_by['denominator']} (flagged)"
+            elif f.reproduced_by and "level" in f.reproduced_by:
+                row[5] = f"{NAMES[f.reproduced_by['method']]} at level {f.reproduced_by['level']:g} (flagged)"
+            elif "design_effect" in f.details:
+                row[5] = f"design effect {f.details['design_effect']:.3g} (note)"
+            else:
+                row[5] = marks[f.status]
+    if not rows:
+        return None
+    return SummaryTable("The printed rates against the table of counts",
+                        ("rate", "printed", "from the counts", "value", "printed interval", "interval is"),
+                        tuple(tuple(r) for r in rows.values()))
+
+
 SPEC = CheckSpec(
     id="rates",
+    summary=summary,
     title="Rates from the table of counts",
     run=check,
-    quotes="value",
+    quotes="range",
     statements={
         "rate_value": Statement(
             question="How was {what} computed from the table of counts? The table gives another value.",

@@ -212,7 +212,7 @@ def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
     the numbers a survey adjusts across its claims (Holm, Benjamini-Hochberg).
     A marginalized systematic gives the quadrature value exactly for a Gaussian
     null (Cousins and Highland 1992), so it is computed as quadrature here.
-    None when the claim lacks a threshold or a positive error."""
+    None when the claim lacks an estimate, a threshold or a positive error."""
     if claim.threshold is None or claim.estimate is None:
         return None
     t = claim.threshold.value
@@ -227,17 +227,90 @@ def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
     elif claim.interval is not None:
         iv = claim.interval
         stat = sigma_from_interval(iv.low.value, iv.high.value, iv.level.value)
+    elif per_circuit(claim):
+        stat = math.sqrt(binomial_variance(claim.estimate.value) / claim.circuits.value)
     else:
         return None
     if stat is None or not (math.isfinite(stat) and stat > 0):
         return None
     syst = claim.syst_error.value if (claim.syst_error is not None and convention["systematics"] != "none") else 0.0
     syst = syst if math.isfinite(syst) else 0.0
-    z = (claim.estimate.value - t) / ((stat + syst) if convention["systematics"] == "linear" else math.hypot(stat, syst))
+    # A systematic added linearly widens the error itself (stat + syst); otherwise in quadrature.
+    total = stat + syst if convention["systematics"] == "linear" else math.hypot(stat, syst)
+    z = (claim.estimate.value - t) / total
     if not math.isfinite(z):
         return None
     sided = convention["sided"]
     return (abs(z) if sided == "two" else z), log_p_from_sigma(abs(z) if sided == "two" else z, sided)
+
+
+def per_circuit(claim: Claim) -> bool:
+    """Heavy output with circuits: the criterion's error over circuits,
+    sqrt(h (1 - h) / circuits) at the estimate, is defined (Cross et al. 2019)."""
+    return claim.metric == "heavy-output" and claim.circuits is not None and claim.circuits.low > 0
+
+
+def _recompute_per_circuit(claim: Claim, convention: dict, syst: tuple[float, float]) -> Recomputed | None:
+    """z and log p with the heavy-output criterion's error over circuits, taken at the estimate
+    (exact at the vertices of estimate, circuits and systematic: ``heavy_output_sigma``)."""
+    if convention["systematics"] == "marginalized":
+        return None
+    t = claim.threshold.value
+    sided = convention["sided"]
+    sigma = over_box(lambda e, k, ss: heavy_output_sigma(e, t, k, ss),
+                     [claim.estimate.bounds, claim.circuits.bounds, syst])
+    if not all(math.isfinite(v) for v in sigma):
+        return None
+    log_p = tuple(sorted(log_p_from_sigma(z, sided) for z in sigma))
+    if sided == "two":
+        sigma = tuple(sorted(abs(x) for x in sigma)) if sigma[0] * sigma[1] > 0 else (0.0, max(map(abs, sigma)))
+        log_p = tuple(sorted(log_p_from_sigma(z, sided) for z in sigma))
+    return Recomputed(convention, sigma, log_p)
+
+
+def _criterion(claim: Claim, shown: Recomputed, tol: float) -> Iterator[Finding]:
+    """With a printed error beside circuits, say under which convention a heavy-output claim
+    reaches its required level: the printed error (shot noise, when it is the binomial error of
+    all shots) or the criterion's error over circuits, the convention the 2/3-at-two-sigma
+    criterion is defined with (Cross et al. 2019).  Reaching it only under the first is flagged."""
+    sig = claim.significance
+    if not (per_circuit(claim) and sig.required_sigma is not None and statistical_error(claim)[0] is not None):
+        return
+    crit = _recompute_per_circuit(claim, {"sided": "one", "systematics": "none", "error_at": "estimate"},
+                                  (0.0, 0.0))
+    if crit is None:
+        return
+    need = sig.required_sigma
+    h = claim.estimate.value
+    per = math.sqrt(binomial_variance(h) / claim.circuits.value)
+    printed_ok = not above(need, shown.sigma[1], tol)
+    crit_ok = not above(need, crit.sigma[1], tol)
+    facts = {"quantity": "criterion", "required": need.value, "sigma_printed_low": shown.sigma[0],
+             "sigma_printed_high": shown.sigma[1], "sigma_circuits_low": crit.sigma[0],
+             "sigma_circuits_high": crit.sigma[1], "per_circuit_error": per, "tolerance": tol}
+    about = {"field": need.path, "statement": "criterion", "printed": Shown.of(need),
+             "recomputed_range": Span(*crit.sigma), "tolerance": tol}
+    words = (f"the criterion's error over circuits, sqrt(h(1 - h)/{claim.circuits.text}) = {num(per, 3)}, "
+             f"gives {span_text(crit.sigma)} sigma")
+    printed = f"the printed stat_error {claim.stat_error.text}" if claim.stat_error else "the printed interval"
+    if printed_ok and not crit_ok:
+        yield Finding("fail", f"The required {need.text} sigma is reached only with {printed} "
+                      f"({span_text(shown.sigma)} sigma), an error below the criterion's (shot noise, say); {words}, "
+                      "short of it.",
+                      reported=need.value, recomputed=(crit.sigma[0] + crit.sigma[1]) / 2,
+                      reproduced_by={"error": "shot noise"}, details=facts, **about)
+    elif printed_ok:
+        yield Finding("pass", f"The required {need.text} sigma is reached with {printed} and under the "
+                      f"criterion's convention too: {words}.", reported=need.value,
+                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts, **about)
+    elif crit_ok:
+        yield Finding("pass", f"With {printed} the required {need.text} sigma is not reached, but {words}, "
+                      "which reaches it.", reported=need.value, recomputed=(crit.sigma[0] + crit.sigma[1]) / 2,
+                      details=facts, **about)
+    else:
+        yield Finding("fail", f"The required {need.text} sigma is reached under neither convention: "
+                      f"{printed} gives {span_text(shown.sigma)} sigma and {words}.", reported=need.value,
+                      recomputed=(crit.sigma[0] + crit.sigma[1]) / 2, details=facts, **about)
 
 
 class _Lazy:

@@ -71,6 +71,17 @@ ABOUT_THE_CLAIM = Statement(about=WHOLE_CLAIM)
 
 
 @dataclass(frozen=True)
+class SummaryTable:
+    """A small table a check makes of its own findings, which the reports show
+    under the check's title (the rates printed from a table of counts against
+    what the counts give).  Every cell is text."""
+
+    caption: str
+    headers: tuple[str, ...]
+    rows: tuple[tuple[str, ...], ...]
+
+
+@dataclass(frozen=True)
 class CheckSpec:
     """A check: its id, its title, the function that runs it and its statements.
 
@@ -89,6 +100,9 @@ class CheckSpec:
         for a check whose recomputation is not one number or range (Cochran's
         Q and its companions; a predicted value with its uncertainty).  By
         default the reports write the finding's recomputed range or value.
+    summary : callable, optional
+        ``findings of this check -> SummaryTable | None``: a table the reports
+        show under the check's title.
     """
 
     id: str
@@ -97,6 +111,7 @@ class CheckSpec:
     statements: Mapping[str, Statement] = field(default_factory=dict)
     implied: Callable[[Finding], str | None] | None = None
     quotes: str = "range"
+    summary: Callable[[Iterable[Finding]], "SummaryTable | None"] | None = None
 
     def __post_init__(self) -> None:
         if self.quotes not in ("range", "value"):

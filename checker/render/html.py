@@ -23,7 +23,7 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Report
 from ..vocabulary import CAUTION, COMBINATION_NAMES, STATUS_WORDS, TALLY_WORDS, VERDICT_SENTENCES
 from ..wording import num
-from .notes import Point, field_words, is_plain_number, one_line, points, printed_numbers, summary_lines
+from .notes import Point, field_words, is_plain_number, one_line, points, printed_numbers, summary_lines, summary_tables
 
 # --- page ---------------------------------------------------------------------------
 
@@ -498,6 +498,8 @@ def render_html(report: Report, claim: Claim) -> str:
             fragment = f'<p class="cc-note">This picture is left out: {escape(str(exc))}.</p>'
         if fragment:
             sections.append((heading, fragment, ident))
+    for n, table in enumerate(summary_tables(report), 1):
+        sections.append((table.caption, table_html(table.headers, table.rows), f"summary-{n}"))
     agreed = list(points(report, claim, ("pass",)))
     if agreed:
         sections.append(("What agrees", _brief_list(agreed), "agrees"))

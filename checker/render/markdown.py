@@ -14,7 +14,7 @@ import re
 from ..claim.model import Claim
 from ..report import Report
 from ..vocabulary import CAUTION, STATUS_WORDS
-from .notes import Point, field_words, is_plain_number, one_line, points, summary_lines, title_of
+from .notes import Point, field_words, is_plain_number, one_line, points, summary_lines, summary_tables, title_of
 
 # CommonMark lets a backslash escape any ASCII punctuation.  Escape what could
 # start markup mid-line; leave intraword underscores ("stat_error") alone, since
@@ -119,6 +119,12 @@ def render_markdown(report: Report, claim: Claim) -> str:
         out += ["## Points to raise", ""]
         for n, p in enumerate(raised, 1):
             out += _point_block(n, p)
+    for table in summary_tables(report):
+        out += [f"## {md(table.caption)}", ""]
+        out.append("| " + " | ".join(md(h) for h in table.headers) + " |")
+        out.append("|" + "---|" * len(table.headers))
+        out += ["| " + " | ".join(md(c).replace("|", "\\|") for c in row) + " |" for row in table.rows]
+        out.append("")
     agreed = list(points(report, claim, ("pass",)))
     if agreed:
         out += ["## What agrees", ""]

@@ -230,3 +230,19 @@ def _join(items: list[str]) -> str:
     if len(items) <= 1:
         return "".join(items)
     return ", ".join(items[:-1]) + " and " + items[-1]
+
+
+def summary_tables(report: Report) -> list:
+    """The tables the checks make of their own findings (``CheckSpec.summary``),
+    in registry order, for the reports to show."""
+    from ..checks import REGISTRY
+
+    tables = []
+    for check_id, spec in REGISTRY.items():
+        if spec.summary is None:
+            continue
+        mine = [f for f in report.findings if f.check == check_id]
+        table = spec.summary(mine) if mine else None
+        if table is not None:
+            tables.append(table)
+    return tables

@@ -211,3 +211,20 @@ def test_rates_without_a_table_and_impossible_rates_are_refused(write_claim):
 def test_no_table_is_a_skip():
     found = findings("title: t\nmetric: proportion\nestimate: 0.5\n")
     assert [f.status for f in found] == ["skip"]
+
+
+def test_the_reports_show_each_rate_printed_against_the_counts(tmp_path):
+    # The Markdown notes and the HTML report carry the check's own table (CheckSpec.summary):
+    # each printed rate beside k/n from the table, and what its interval is.
+    from pathlib import Path
+
+    example = Path(__file__).resolve().parents[2] / "claims_examples" / "triage_recall_wrong_denominator.yaml"
+    notes, page = tmp_path / "n.md", tmp_path / "r.html"
+    status, _, _ = cli("check", example, "--markdown", notes, "--html", page)
+    assert status == 1
+    text = notes.read_text(encoding="utf-8")
+    assert "## The printed rates against the table of counts" in text
+    assert "| recall | 83.33% | 35/42 = 83.333% | agrees | \\[75.06%, 91.60%\\] | Wald with N = 78 (flagged) |" in text
+    assert "| specificity | 88.89% | 32/36 = 88.889% | agrees | \\[78.62%, 99.16%\\] | Wald |" in text
+    html = page.read_text(encoding="utf-8")
+    assert "The printed rates against the table of counts" in html and "35/42 = 83.333%" in html

@@ -302,3 +302,61 @@ def test_the_central_significance_uses_the_stated_errors(check_claim):
                          "interval: {low: 1.5e-3, high: 2.2e-3, level: 0.95}\n", only=["significance"])
     d = report.findings[0].details
     assert d["sigma_central"] == pytest.approx(0.85e-3 / (0.35e-3 / 1.959964), rel=1e-6)
+
+
+# --- issue 11, item 4: the heavy-output criterion's error convention ----------------------------
+
+HEAVY_40 = """\
+title: Invented heavy-output claim on 40 circuits
+metric: heavy-output
+qubits: 6
+estimate: 0.705
+stat_error: 0.012
+samples: 40000
+circuits: 40
+threshold: 0.6666667
+significance: {required_sigma: 2}
+"""
+
+
+def test_heavy_output_reaching_two_sigma_only_with_shot_noise_is_flagged(check_claim):
+    found = check_claim(HEAVY_40, only=["significance"]).findings
+    (crit,) = [f for f in found if f.details.get("quantity") == "criterion"]
+    # Cross et al., Phys. Rev. A 100, 032328 (2019): sigma = sqrt(h (1 - h)/circuits) at the
+    # estimate; (0.705 - 2/3)/sqrt(0.705 x 0.295/40) = 0.532 (hand calculation), far short of 2,
+    # while the printed 0.012 gives 3.2.
+    assert crit.status == "fail"
+    assert crit.details["per_circuit_error"] == pytest.approx(math.sqrt(0.705 * 0.295 / 40))
+    assert crit.details["sigma_circuits_low"] < 0.532 < crit.details["sigma_circuits_high"]
+    assert crit.details["sigma_printed_low"] > 2
+    assert "only with the printed stat_error 0.012" in crit.message
+
+
+def test_the_criterion_agrees_with_what_plan_expects(check_claim):
+    # plan's table for 40 circuits at the expected value 0.705 gives the same per-circuit sigma.
+    import io
+    import json
+
+    from checker.cli import run
+
+    out = io.StringIO()
+    run(["plan", "--metric", "heavy-output", "--fidelity", "0.705", "--circuits", "40", "--json"], out,
+        io.StringIO())
+    row = next(r for r in json.loads(out.getvalue())["table"] if r["circuits"] == 40)
+    found = check_claim(HEAVY_40, only=["significance"]).findings
+    (crit,) = [f for f in found if f.details.get("quantity") == "criterion"]
+    assert crit.details["sigma_circuits_low"] <= row["expected_sigma"] <= crit.details["sigma_circuits_high"]
+
+
+def test_heavy_output_criterion_without_a_printed_error_is_computed(check_claim):
+    # Heavy output, circuits, threshold and required_sigma: 2, no stat_error: the criterion itself,
+    # (0.757 - 2/3)/sqrt(0.757 x 0.243/100) = 2.11 (hand calculation from Cross et al. 2019).
+    text = ("title: Invented heavy-output claim\nmetric: heavy-output\nqubits: 6\nestimate: 0.757\n"
+            "circuits: 100\nthreshold: 0.6666667\nsignificance: {required_sigma: 2}\n")
+    found = check_claim(text, only=["significance"]).findings
+    statuses = {f.details.get("quantity"): f for f in found}
+    required = statuses["required_sigma"]
+    assert required.status == "pass"
+    z = (0.757 - 0.6666667) / math.sqrt(0.757 * 0.243 / 100)
+    assert required.details["sigma_low"] < z < required.details["sigma_high"]
+    assert "criterion" not in statuses  # no second convention to compare
