@@ -284,3 +284,13 @@ def test_a_printed_p_of_zero_is_flagged_by_bounds_and_not_compared(write_claim):
     sig = [f for f in found if f["check"] == "significance"]
     assert not any("matching the printed p" in f["message"] for f in sig)
     assert [f["status"] for f in sig if f["field"] == "significance.p_value"] == ["skip"]
+
+
+def test_checks_skip_an_input_that_bounds_flags(write_claim):
+    status, out, _ = cli("check", write_claim(CLEAN.replace("stat_error: 0.009", "stat_error: -0.009")), "--json")
+    found = strict_json(out)["findings"]
+    assert status == 1 and [f["check"] for f in found if f["status"] == "fail"] == ["bounds"]
+    for check in ("error-floor", "significance"):
+        (f,) = [f for f in found if f["check"] == check]
+        assert f["status"] == "skip" and "stat_error -0.009 is not used" in f["message"]
+    assert not any("n/a" in f["message"] for f in found)

@@ -60,6 +60,16 @@ def is_probability(rep: Reported) -> bool:
     return rep.log_high > -math.inf and not math.isnan(rep.log_high) and rep.value <= 1.0
 
 
+def flagged_error(rep: Reported | None) -> bool:
+    """A printed error that ``bounds`` flags (zero or negative): checks that need it skip it."""
+    return rep is not None and not rep.value > 0
+
+
+def skipped_words(rep: Reported) -> str:
+    """"the printed stat_error -0.009 is not used: the physical-range check flags it"."""
+    return f"the printed {rep.path} {rep.text} is not used: the physical-range check flags it"
+
+
 def printed_zero(rep: Reported) -> bool:
     """A p printed as exactly zero ("0", "0.000"), not one that underflows the double range
     (1e-400 has a zero value but a zero upper end too) nor a bound ("< 0.001")."""

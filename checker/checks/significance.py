@@ -32,7 +32,7 @@ from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
 from ..vocabulary import convention_text
 from ..wording import num, p_range_text, span_text
-from .common import above, is_probability, printed_zero, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
+from .common import flagged_error, skipped_words, above, is_probability, printed_zero, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 LN10 = math.log(10.0)
@@ -345,6 +345,10 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     conventions = _conventions(claim)
     results = _Lazy(r for r in (recompute(claim, c) for c in conventions) if r is not None)
     mine = next((r for r in results if r.convention == stated), None)
+    if mine is None and flagged_error(claim.stat_error):
+        yield Finding("skip", f"Cannot recompute the significance; {skipped_words(claim.stat_error)}.",
+                      details={"skipped_input": claim.stat_error.path}, statement="needs_inputs")
+        return
     if mine is None:
         missing = []
         if claim.estimate is None:
