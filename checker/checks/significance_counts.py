@@ -39,7 +39,7 @@ def _results(claim: Claim) -> dict:
     err = claim.background_error.bounds if claim.background_error is not None else (0.0, 0.0)
     out = {}
     for sided in ("one", "two"):
-        for method in counts.METHODS:
+        for method in counts.COUNT_METHODS:
             for with_error in ((True, False) if method in counts.WITH_BACKGROUND_ERROR else (False,)):
                 if with_error and err[1] <= 0:
                     continue

@@ -46,7 +46,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from .combine import tau2_paule_mandel
-from .ranges import Range, _ss_max, _ss_min, bounded_range, weighted_mean_range, weighted_ss_range
+from .ranges import Range, weighted_ss_max, weighted_ss_min, bounded_range, weighted_mean_range, weighted_ss_range
 
 ALL_VERTICES = 12  # free inputs up to which every vertex is a starting candidate
 SEARCH_LIMIT = 32  # free inputs beyond which the candidates alone are evaluated, without a search
@@ -281,7 +281,7 @@ class CombinationRanges:
                 out = np.empty(z.shape[0])
                 for i, s in enumerate(z):
                     w = 1.0 / (s * s)
-                    q = _ss_min(b.x_low, b.x_high, w) if which == "min" else _ss_max(b.x_low, b.x_high, w)
+                    q = weighted_ss_min(b.x_low, b.x_high, w) if which == "min" else weighted_ss_max(b.x_low, b.x_high, w)
                     out[i] = self._error_given_q(method, quantity, s, q)
                 return out
             return rows

@@ -178,7 +178,7 @@ def weighted_mean_range(x_low, x_high, w_low, w_high) -> Range:
     return (low, high)
 
 
-def _ss_min(a: np.ndarray, b: np.ndarray, w: np.ndarray) -> float:
+def weighted_ss_min(a: np.ndarray, b: np.ndarray, w: np.ndarray) -> float:
     """min over mu of sum w dist(mu, [a, b])^2, exactly.
 
     The derivative, 2 [sum_{b_i < mu} w_i (mu - b_i) - sum_{a_i > mu} w_i (a_i - mu)],
@@ -226,7 +226,7 @@ def _ss(x: np.ndarray, w: np.ndarray) -> np.ndarray:
     return (dev * dev) @ w
 
 
-def _ss_max(a: np.ndarray, b: np.ndarray, w: np.ndarray) -> float:
+def weighted_ss_max(a: np.ndarray, b: np.ndarray, w: np.ndarray) -> float:
     k = a.size
     if k <= EXHAUSTIVE_PARTS:
         pick = ((np.arange(2 ** k)[:, None] >> np.arange(k)) & 1).astype(bool)
@@ -277,8 +277,8 @@ def weighted_ss_range(x_low, x_high, w_min, w_max) -> Range:
     """
     a, b = np.asarray(x_low, float), np.asarray(x_high, float)
     w_min, w_max = np.asarray(w_min, float), np.asarray(w_max, float)
-    low = _ss_min(a, b, w_min)
-    high = _ss_max(a, b, w_max) if np.all(np.isfinite(w_max)) else math.inf
+    low = weighted_ss_min(a, b, w_min)
+    high = weighted_ss_max(a, b, w_max) if np.all(np.isfinite(w_max)) else math.inf
     return (low, high)
 
 
