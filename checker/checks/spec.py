@@ -92,7 +92,8 @@ class CheckSpec:
     title : str
         The check in plain words, the heading of its points in the reports.
     run : callable
-        ``Claim -> Iterable[Finding]``.
+        ``Claim -> Iterable[Finding]``; for a raw-data check (``RAW_SPECS``),
+        ``(Claim, RawResult) -> Iterable[Finding]``.
     statements : mapping of str to Statement
         Every statement id the check's findings carry.
     implied : callable, optional
@@ -121,5 +122,5 @@ class CheckSpec:
     def statement(self, statement_id: str) -> Statement | None:
         return self.statements.get(statement_id)
 
-    def __call__(self, claim) -> Iterable[Finding]:
-        return self.run(claim)
+    def __call__(self, *inputs) -> Iterable[Finding]:
+        return self.run(*inputs)

@@ -99,8 +99,9 @@ def run(args, stdout, stderr) -> int:
     write_all_atomic(written, inputs)
     if args.json:
         from ..render.json import dumps
+        from ..render.raw_json import raw_result_to_dict
 
-        stdout.write(dumps(result.to_dict()))
+        stdout.write(dumps(raw_result_to_dict(result)))
     else:
         stdout.write(render_raw_text(result))
     if result.findings is not None and any(f.status == "fail" for f in result.findings):
@@ -109,17 +110,10 @@ def run(args, stdout, stderr) -> int:
 
 
 def _with_claim(result, claim, claim_file, replace):
-    from ..checks import run_checks
-    from ..raw.compare import claim_with_raw_numbers, raw_findings, with_raw_label
-    from ..report import Finding, Report
+    """The result with the claim checks and the raw-data checks (checker.checks)."""
+    from ..checks import run_checks, run_raw_checks
+    from ..report import Report
 
-    findings = list(run_checks(claim).findings)
-    findings += raw_findings(claim, result)
-    substituted = claim_with_raw_numbers(claim, result)
-    if substituted is None:
-        findings.append(Finding("skip", "The claim checks were not rerun on the raw numbers: the headline is "
-                                "extrapolated from the measured value.", check="raw-rerun"))
-    else:
-        findings += [with_raw_label(f) for f in run_checks(substituted).findings]
-    report = Report(title=claim.title, file=claim_file, findings=tuple(findings))
+    findings = run_checks(claim).findings + run_raw_checks(claim, result)
+    report = Report(title=claim.title, file=claim_file, findings=findings)
     return replace(result, findings=report.findings, claim_file=claim_file, verdict=report.verdict)

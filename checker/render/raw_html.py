@@ -23,22 +23,11 @@ from typing import Iterable, Sequence
 from ..report import Finding, Report
 from .page import figure_html, html_page, status_mark, table_html, tile, verdict_panel
 from ..wording import num, p_cell
-from .notes import one_line, title_of
+from .notes import make_point, one_line, title_of
 from ..vocabulary import RESAMPLING_NAMES
 from .raw_text import AT_WORDS, METRIC_WORDS, TEST_WORDS, visible_findings
 
 MAX_CIRCUIT_ROWS = 500  # beyond this the table is cut; --json has them all
-
-# Our titles for the raw-data checks (ids from checker/raw/compare.py).
-RAW_TITLES = {
-    "raw-estimate": "Printed estimate against the raw data",
-    "raw-error": "Printed statistical error against the raw data",
-    "raw-samples": "Printed sample count against the raw data",
-    "raw-circuits": "Printed circuit count against the raw data",
-    "raw-model": "Porter-Thomas model of the raw data",
-    "raw-rerun": "Claim checks on the raw data's numbers",
-}
-
 
 def _data_section(result) -> str:
     tiles = [("data file", result.file), ("samples (rows)", f"{result.rows:,}"),
@@ -164,7 +153,8 @@ def _circuit_section(result) -> str:
 
 
 def _heading(f: Finding) -> str:
-    title = RAW_TITLES.get(f.check) or title_of(f.check)
+    """The check's title from its spec (claim or raw-data registry)."""
+    title = title_of(f.check)
     if f.details.get("numbers") == "raw":
         title += " (with the raw data's numbers)"
     return title
@@ -178,6 +168,9 @@ def _card(n: int, f: Finding) -> str:
         facts.append(("Re-derived", num(f.recomputed, 4)))
     if f.reproduced_by:
         facts.append(("Would follow", ", ".join(f"{k} = {v}" for k, v in f.reproduced_by.items())))
+    question = make_point(f).question  # the question its check's spec owns
+    if question:
+        facts.append(("Ask the authors", question))
     dl = "".join(f"<dt>{escape(k)}</dt><dd>{escape(one_line(v))}</dd>" for k, v in facts)
     return (f'<article class="cc-point cc-{f.status}" id="finding-{n}">'
             f'<h3><span class="cc-num">{n}</span>{escape(_heading(f))} {status_mark(f.status)}</h3>'

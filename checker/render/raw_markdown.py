@@ -15,16 +15,16 @@ from ..report import Finding, Report
 from .markdown import md
 from ..vocabulary import CAUTION, STATUS_WORDS
 from ..wording import num, p_equals
-from .notes import summary_lines, title_of
+from .notes import make_point, summary_lines, title_of
 from ..vocabulary import RESAMPLING_NAMES
-from .raw_html import RAW_TITLES
 from .raw_text import METRIC_WORDS, TEST_WORDS, visible_findings
 
 _AT = {"fitted": "the fitted F", "threshold": "the threshold F", "zero": "F"}
 
 
 def _title(f: Finding) -> str:
-    title = RAW_TITLES.get(f.check) or title_of(f.check)
+    """The check's title from its spec (claim or raw-data registry)."""
+    title = title_of(f.check)
     return title + (" (with the raw data's numbers)" if f.details.get("numbers") == "raw" else "")
 
 
@@ -74,10 +74,12 @@ def render_raw_markdown(result, report: Report | Sequence[Finding] | None = None
         shown, _ = visible_findings(report.findings)
         raised = [f for f in shown if f.status in ("fail", "warn")]
         lines += ["## Against the claim", ""]
-        if raised:
-            lines += [f"{n}. **{md(_title(f))}** ({STATUS_WORDS[f.status]}). {md(f.message)}"
-                      for n, f in enumerate(raised, 1)]
-        else:
+        for n, f in enumerate(raised, 1):
+            lines.append(f"{n}. **{md(_title(f))}** ({STATUS_WORDS[f.status]}). {md(f.message)}")
+            question = make_point(f).question  # the question its check's spec owns
+            if question:
+                lines.append(f"   - Suggested question: {md(question)}")
+        if not raised:
             lines.append("Nothing to raise.")
         passed = [f for f in shown if f.status == "pass"]
         if passed:

@@ -95,3 +95,67 @@ def test_an_unregistered_check_still_renders_with_plain_words(monkeypatch):
     p = make_point(Finding("warn", "Something odd.", check="made-up-check"))
     assert p.heading == "Made up check" and p.question == "Could the authors say how this number was obtained?"
     assert WHOLE_CLAIM == "claim"
+
+
+# --- the raw-data registry --------------------------------------------------------------------
+
+def test_the_raw_registry_beside_the_claim_registry():
+    from checker.checks import RAW_REGISTRY, RAW_SPECS
+
+    assert [s.id for s in RAW_SPECS] == list(RAW_REGISTRY)
+    assert not set(RAW_REGISTRY) & set(REGISTRY)  # --only never names a raw-data check
+    titles = [s.title for s in SPECS + RAW_SPECS]
+    assert len(set(titles)) == len(titles)
+    assert all(spec_for(s.id) is s for s in RAW_SPECS)
+    for spec in RAW_SPECS:
+        for sid, statement in spec.statements.items():
+            for reproduced in (None, "with estimator maximum likelihood"):
+                asked = statement.ask("the printed estimate 0.606", reproduced)
+                if asked is not None:
+                    assert "{" not in asked and asked.endswith(("?", ".")), (spec.id, sid, asked)
+
+
+def _tiny_raw(claim, result):
+    """Invented for this test: does the printed sample count name every row's worth of circuits?"""
+    rows = claim.samples
+    per = result.rows / max(result.circuit_count, 1)
+    yield Finding("warn", f"The data hold {per:,.0f} samples per circuit.", reported=rows.value,
+                  recomputed=per, field=rows.path, statement="per_circuit", printed=Shown.of(rows),
+                  recomputed_range=Span(per, per), tolerance=0.0)
+
+
+TINY_RAW = CheckSpec(
+    id="tiny-per-circuit", title="Samples per circuit in the raw data (a check made up for this test)",
+    run=_tiny_raw,
+    statements={"per_circuit": Statement(question="Could the authors print how {what} splits over the circuits?")})
+
+
+def test_a_raw_data_check_registered_in_a_test_shows_in_every_output(monkeypatch, tmp_path):
+    from pathlib import Path
+
+    from checker.checks import RAW_REGISTRY
+
+    monkeypatch.setitem(RAW_REGISTRY, TINY_RAW.id, TINY_RAW)
+    examples = Path(__file__).resolve().parents[2] / "claims_examples"
+    data, claim = examples / "simulated_raw_lattice.csv", examples / "simulated_raw_lattice.yaml"
+    notes, page = tmp_path / "raw.md", tmp_path / "raw.html"
+    base = ["raw", str(data), "--claim", str(claim), "--bootstrap", "100", "--fit-sample", "1000"]
+
+    text = io.StringIO()
+    assert run(base + ["--markdown", str(notes), "--html", str(page)], text, io.StringIO()) == 0
+    line = next(x for x in text.getvalue().splitlines() if "tiny-per-circuit" in x)
+    assert line.startswith(" note tiny-per-circuit") and line.endswith("The data hold 500 samples per circuit.")
+
+    out = io.StringIO()
+    run(base + ["--json"], out, io.StringIO())
+    tiny = [f for f in json.loads(out.getvalue())["findings"] if f["check"] == "tiny-per-circuit"]
+    assert len(tiny) == 1 and tiny[0]["title"] == TINY_RAW.title and tiny[0]["field"] == "samples"
+    question = "Could the authors print how the printed number of samples 4000 splits over the circuits?"
+    assert tiny[0]["question"] == question
+
+    md = notes.read_text(encoding="utf-8")
+    assert f"**{TINY_RAW.title}** (note). The data hold 500 samples per circuit." in md
+    assert f"   - Suggested question: {question}" in md
+
+    html = page.read_text(encoding="utf-8")
+    assert TINY_RAW.title in html and question in html

@@ -124,3 +124,88 @@ def test_markdown_and_html_name_the_findings_field(path):
         else:
             assert f"(field `{f.field}`)" in md, (f.field, md)
             assert f'<span class="cc-field">({escape(f.field)})</span>' in page, f.field
+
+
+# --- the raw-data checks (RAW_REGISTRY), on the invented example's simulated data ---------------
+
+RAW_DATA = EXAMPLES / "simulated_raw_lattice.csv"
+RAW_CLAIM = (EXAMPLES / "simulated_raw_lattice.yaml").read_text(encoding="utf-8")
+# Variants of the invented example's claim that reach every raw-data statement: flags on the
+# estimate, the error and the counts, an extrapolated headline, fields left out.
+RAW_VARIANTS = {
+    "as committed": RAW_CLAIM,
+    "estimate off": RAW_CLAIM.replace("estimate: 0.606", "estimate: 0.75"),
+    "estimate a little off": RAW_CLAIM.replace("estimate: 0.606", "estimate: 0.650"),
+    "error too small": RAW_CLAIM.replace("stat_error: 0.023", "stat_error: 0.005"),
+    "error too large": RAW_CLAIM.replace("stat_error: 0.023", "stat_error: 0.2"),
+    "counts off": RAW_CLAIM.replace("samples: 4000", "samples: 5000").replace("circuits: 8", "circuits: 10"),
+    "no counts, no error": RAW_CLAIM.replace("samples: 4000\n", "").replace("circuits: 8\n", "")
+                                    .replace("stat_error: 0.023\n", ""),
+    "extrapolated": RAW_CLAIM + "combination: {method: inverse-variance, estimate: 0.606, stat_error: 0.023}\n"
+                                "extrapolation: {factor: 1.000, factor_error: 0.100}\n",
+    "extrapolated, nothing combined": RAW_CLAIM + "extrapolation: {factor: 1.02, factor_error: 0.01}\n",
+    # Only significances printed (a local and a global sigma): the one claim with no estimate.
+    "no estimate": RAW_CLAIM.replace("estimate: 0.606\n", "").replace("required_sigma: 3", "global_sigma: 4.0"),
+}
+
+
+@pytest.fixture(scope="module")
+def raw_result():
+    from checker.raw.analysis import analyse
+
+    return analyse(str(RAW_DATA), "linear-xeb", 12, bootstrap=200, fit_sample=2000)
+
+
+def raw_problems(claim, result) -> list[str]:
+    """problems() for every finding of the raw-data registry; a claim check rerun on the
+    data's numbers is held against the claim it ran on (the one with the raw numbers)."""
+    from checker.checks import run_raw_checks
+    from checker.checks.raw_rerun import claim_with_raw_numbers
+
+    substituted = claim_with_raw_numbers(claim, result)
+    found = []
+    for f in run_raw_checks(claim, result):
+        found += problems(f, substituted if f.details.get("numbers") == "raw" else claim)
+    return found
+
+
+@pytest.mark.parametrize("name", list(RAW_VARIANTS))
+def test_every_raw_data_finding_describes_itself(tmp_path, raw_result, name):
+    path = tmp_path / "claim.yaml"
+    path.write_text(RAW_VARIANTS[name], encoding="utf-8")
+    claim = read_claim(path)
+    found = raw_problems(claim, raw_result)
+    assert not found, "\n".join(found)
+
+
+def test_the_raw_variants_reach_every_raw_statement(tmp_path, raw_result):
+    from checker.checks import RAW_SPECS, run_raw_checks
+
+    reached = set()
+    for name, text in RAW_VARIANTS.items():
+        path = tmp_path / f"{len(reached)}.yaml"
+        path.write_text(text, encoding="utf-8")
+        reached |= {(f.check, f.statement) for f in run_raw_checks(read_claim(path), raw_result)}
+    # Not reached from this file: statements for data that give no estimate or error, a
+    # file with no circuit column, a run with no goodness-of-fit test, circuits that scatter
+    # more than their samples explain (tests/raw/test_compare.py makes those).
+    unreachable = {("raw-estimate", "no_raw_estimate"), ("raw-error", "no_data_error"),
+                   ("raw-error", "circuit_scatter"),
+                   ("raw-samples", "not_counted"), ("raw-circuits", "not_counted"), ("raw-model", "not_run"),
+                   ("raw-rerun", "no_raw_estimate")}
+    declared = {(s.id, sid) for s in RAW_SPECS for sid in s.statements}
+    assert declared - unreachable <= reached, sorted(declared - unreachable - reached)
+
+
+@settings(max_examples=100, deadline=datetime.timedelta(seconds=20),
+          suppress_health_check=[HealthCheck.too_slow, HealthCheck.function_scoped_fixture])
+@given(text=claims())
+def test_every_generated_raw_data_finding_describes_itself(tmp_path, raw_result, text):
+    path = tmp_path / "claim.yaml"
+    path.write_text(text, encoding="utf-8")
+    try:
+        claim = read_claim(path)
+    except ClaimcheckError:
+        return
+    found = raw_problems(claim, raw_result)
+    assert not found, text + "\n" + "\n".join(found)

@@ -5,6 +5,7 @@ import pytest
 
 from checker.errors import DataError
 from checker.raw.analysis import analyse
+from checker.render.raw_json import raw_result_to_dict
 from checker.raw.simulate_circuits import simulate_dataset
 
 
@@ -59,9 +60,9 @@ def test_single_circuit_bootstrap_is_binned_and_close_to_the_data_error(files):
 def test_same_seed_same_result_other_seed_other_bootstrap(files):
     folder, _, _ = files
     path = str(folder / "many.npz")
-    a = analyse(path, "linear-xeb", 10, bootstrap=300, seed=5, fit_sample=500).to_dict()
-    b = analyse(path, "linear-xeb", 10, bootstrap=300, seed=5, fit_sample=500).to_dict()
-    c = analyse(path, "linear-xeb", 10, bootstrap=300, seed=6, fit_sample=500).to_dict()
+    a = raw_result_to_dict(analyse(path, "linear-xeb", 10, bootstrap=300, seed=5, fit_sample=500))
+    b = raw_result_to_dict(analyse(path, "linear-xeb", 10, bootstrap=300, seed=5, fit_sample=500))
+    c = raw_result_to_dict(analyse(path, "linear-xeb", 10, bootstrap=300, seed=6, fit_sample=500))
     assert a == b
     assert a["bootstrap"]["percentile"]["low"] != c["bootstrap"]["percentile"]["low"]  # the t interval has no seed
     assert a["combined"] == c["combined"]

@@ -51,4 +51,9 @@ def test_cli_writes_the_summary_with_the_flag(files):
     assert text.splitlines()[0] == r"# Invented \<b\>chip\</b\> \*fidelity\* \[link\](x)"
     assert "Verdict: inconsistent." in text
     assert "**Printed estimate against the raw data** (flag)" in text
+    # The summary names the flagged check by its spec's title, as the point does (it read
+    # "raw estimate" before the raw-data checks had specs), and the point asks its question.
+    assert "Worth raising with the authors: printed estimate against the raw data, " in text
+    assert ("   - Suggested question: The raw data give a different value from the printed estimate 0.2. "
+            "Are these the data behind the print, and which estimator does the claim use?") in text
     assert CAUTION in text

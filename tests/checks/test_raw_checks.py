@@ -1,5 +1,5 @@
-"""The claim's printed numbers against the raw data's (invented claims on
-simulated data)."""
+"""The raw-data checks (checker/checks/raw_*.py, RAW_REGISTRY): the claim's
+printed numbers against the raw data's (invented claims on simulated data)."""
 
 from dataclasses import replace
 
@@ -8,7 +8,8 @@ import pytest
 
 from checker.claim import read_claim
 from checker.raw.analysis import analyse
-from checker.raw.compare import _like, claim_with_raw_numbers, raw_findings, with_raw_label
+from checker.checks import run_raw_checks
+from checker.checks.raw_rerun import claim_with_raw_numbers, like_printed, with_raw_label
 from checker.raw.simulate_circuits import simulate_dataset
 from checker.stats.goodness_of_fit import FitTest
 
@@ -30,6 +31,11 @@ def _claim(result, **fields):
     for k in [k for k, v in fields.items() if v is None]:
         base.pop(k)
     return read_claim(base)
+
+
+def raw_findings(claim, result):
+    """The raw-data checks' own findings (raw-rerun's repeats of the claim checks left out)."""
+    return [f for f in run_raw_checks(claim, result) if f.check.startswith("raw-")]
 
 
 def _by_check(findings):
@@ -109,7 +115,7 @@ def test_raw_numbers_take_the_printed_precision(result):
     # Over several circuits the data's own error is the between-circuit one.
     assert swapped.stat_error.text == f"{round(result.headline.extra['stat_error_circuits'], 3):.3f}"
     assert swapped.samples.exact and swapped.samples.value == result.rows
-    assert _like(0.123456, None, "x").exact
+    assert like_printed(0.123456, None, "x").exact
     extrapolated = _claim(result, extrapolation={"factor": 0.9})
     assert claim_with_raw_numbers(extrapolated, result) is None
     labelled = with_raw_label(raw_findings(claim, result)[0])
