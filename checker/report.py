@@ -15,7 +15,10 @@ from typing import Any, Mapping
 
 from .vocabulary import COUNT_WORDS
 
-STATUSES = ("pass", "warn", "fail", "skip")
+STATUSES = ("pass", "warn", "fail", "skip", "info")
+# What a status counts as: "info" is a value recomputed with nothing printed to compare it
+# with, so it neither agrees nor disagrees and, like "skip", checks no printed number.
+NOT_COMPARED = frozenset({"skip", "info"})
 SCALES = ("linear", "log10")
 
 
@@ -86,7 +89,8 @@ class Finding:
     Parameters
     ----------
     status : str
-        ``pass``, ``warn``, ``fail`` or ``skip``.
+        ``pass``, ``warn``, ``fail``, ``skip`` or ``info`` (for information: a value
+        recomputed where nothing was printed to compare it with).
     message : str
         One sentence: what was printed, what the inputs imply, and what would
         reproduce the print.
@@ -158,7 +162,7 @@ class Report:
         statuses = {f.status for f in self.findings}
         if "fail" in statuses:
             return "inconsistent"
-        if not statuses - {"skip"}:
+        if not statuses - NOT_COMPARED:
             return "incomplete"
         return "consistent"
 
@@ -194,5 +198,11 @@ class Report:
         checked)"); the terminal report itself is ``checker.render.text.render_text``, which
         this layer does not import."""
         c = self.counts()
-        tally = ", ".join(f"{c[s]} {COUNT_WORDS[s]}" for s in ("fail", "warn", "pass", "skip"))
+        tally = ", ".join(f"{c[s]} {COUNT_WORDS[s]}" for s in tally_statuses(c))
         return f"{self.title}: {self.verdict} ({tally})"
+
+
+def tally_statuses(counts: Mapping[str, int]) -> tuple[str, ...]:
+    """The statuses a one-line tally lists, in its order: flagged, noted, agree,
+    for information (only when there is any), not checked."""
+    return ("fail", "warn", "pass") + (("info",) if counts.get("info") else ()) + ("skip",)

@@ -17,14 +17,17 @@ from .visible import visible
 # --- statuses and verdicts ------------------------------------------------------
 
 # A finding's status in one word, as the reports print it beside each point.
-STATUS_WORDS = {"fail": "flag", "warn": "note", "pass": "agrees", "skip": "not checked"}
+# "info" is a value recomputed where nothing was printed to compare it with: for information.
+STATUS_WORDS = {"fail": "flag", "warn": "note", "pass": "agrees", "skip": "not checked",
+                "info": "for information"}
 # The same, five characters wide, for the terminal's first column.
-STATUS_MARKS = {"pass": "  ok ", "warn": " note", "fail": "FLAG ", "skip": "  -- "}
+STATUS_MARKS = {"pass": "  ok ", "warn": " note", "fail": "FLAG ", "skip": "  -- ", "info": " info"}
 # Counting findings of each status: "2 flagged, 1 noted, 5 agree, 1 not checked".
-COUNT_WORDS = {"fail": "flagged", "warn": "noted", "pass": "agree", "skip": "not checked"}
+COUNT_WORDS = {"fail": "flagged", "warn": "noted", "pass": "agree", "skip": "not checked",
+               "info": "for information"}
 # A tally of one and of several: "1 flag", "3 flags".
 TALLY_WORDS = {"fail": ("flag", "flags"), "warn": ("note", "notes"), "pass": ("agrees", "agree"),
-               "skip": ("not checked", "not checked")}
+               "skip": ("not checked", "not checked"), "info": ("for information", "for information")}
 
 # The verdict and what it means, one sentence (no closing full stop: each output adds its own).
 VERDICT_SENTENCES = {

@@ -65,8 +65,8 @@ def test_json_follows_the_contract(write_claim, text):
     status, out, err = cli("check", path, "--json")
     assert err == ""
     report = strict_json(out)
-    # DESIGN.md, "Output contract".
-    assert set(report) == {"title", "file", "verdict", "findings"}
+    # DESIGN.md, "Output contract", and the counts of each status (issue 16).
+    assert set(report) == {"title", "file", "verdict", "counts", "findings"}
     assert report["file"] == str(path) and report["title"] == "Invented proportion claim"
     assert report["verdict"] == ("consistent" if status == 0 else "inconsistent")
     assert report["findings"]
@@ -294,3 +294,38 @@ def test_checks_skip_an_input_that_bounds_flags(write_claim):
         (f,) = [f for f in found if f["check"] == check]
         assert f["status"] == "skip" and "stat_error -0.009 is not used" in f["message"]
     assert not any("n/a" in f["message"] for f in found)
+
+
+NOTHING_PRINTED = """\
+title: Invented claim that prints no significance
+metric: linear-xeb
+qubits: 30
+estimate: 2.24e-3
+stat_error: 0.21e-3
+threshold: 0
+"""
+
+
+def test_a_value_with_nothing_printed_to_compare_is_for_information(write_claim, tmp_path):
+    # Issue 16: the significance recomputed where none is printed (2.24e-3 / 0.21e-3 = 10.7 sigma,
+    # arithmetic) is information, not agreement: JSON status and counts, text, notes, batch.
+    path = write_claim(NOTHING_PRINTED)
+    status, out, _ = cli("check", path, "--json")
+    report = strict_json(out)
+    (sig,) = [f for f in report["findings"] if f["check"] == "significance"]
+    assert status == 0 and sig["status"] == "info" and sig["reported"] is None
+    assert 10.4 < sig["recomputed"] < 11.0
+    assert report["counts"]["info"] == 1 and report["counts"]["pass"] == 1  # bounds alone agrees
+    status, out, _ = cli("check", path, "--markdown", tmp_path / "n.md", "--html", tmp_path / "n.html")
+    assert " info significance" in out and "1 agree, 1 for information" in out
+    notes = (tmp_path / "n.md").read_text()
+    agrees, informed = notes.split("## What agrees")[1].split("## For information")
+    assert "No significance is printed" not in agrees and "No significance is printed" in informed
+    assert ">For information</h2>" in (tmp_path / "n.html").read_text()
+    table = tmp_path / "t.csv"
+    table.write_text("title,metric,qubits,estimate,stat_error,threshold\n"
+                     "Invented,linear-xeb,30,2.24e-3,0.21e-3,0\n")
+    status, out, _ = cli("batch", table, "--out", tmp_path / "t.json")
+    (row,) = strict_json((tmp_path / "t.json").read_text())["claims"]
+    assert status == 0 and (row["agree"], row["for_information"]) == (1, 1)
+    assert "wrote 1 row to" in out

@@ -32,7 +32,7 @@ def test_verdict(statuses, verdict, exit_status):
 
 def test_counts_and_failed_checks_in_order_without_repeats():
     r = report("fail", "pass", "fail", "warn", "fail", checks=["b", "a", "b", "c", "a"])
-    assert r.counts() == {"pass": 1, "warn": 1, "fail": 3, "skip": 0}
+    assert r.counts() == {"pass": 1, "warn": 1, "fail": 3, "skip": 0, "info": 0}
     assert r.failed_checks() == ("b", "a")
 
 
@@ -47,8 +47,8 @@ def test_findings_are_frozen_and_their_mappings_read_only():
     assert f.from_check("significance").check == "significance" and f.check == ""
 
 
-def test_a_status_outside_the_four_is_refused():
-    assert STATUSES == ("pass", "warn", "fail", "skip")
+def test_a_status_outside_the_five_is_refused():
+    assert STATUSES == ("pass", "warn", "fail", "skip", "info")
     with pytest.raises(ValueError):
         Finding("ok", "x.")
 

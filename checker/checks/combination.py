@@ -158,7 +158,7 @@ def check(claim: Claim) -> Iterator[Finding]:
     primary = stated or ("inverse-variance" if "inverse-variance" in summary.methods else "equal")
     mine = summary.methods[primary]
     if est is None and err is None:
-        yield Finding("skip", f"No combined value is printed to compare; {METHOD_WORDS[primary]} of the "
+        yield Finding("info", f"No combined value is printed to compare; {METHOD_WORDS[primary]} of the "
                       f"{k} parts is {value_text(mine.estimate, None)}.", recomputed=mine.estimate,
                       details=details, statement="not_printed", recomputed_range=_span(mine.estimate_range))
         return

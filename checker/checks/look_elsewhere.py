@@ -177,7 +177,7 @@ def check(claim: Claim) -> Iterator[Finding]:
                           f"{sig.required_sigma.text} sigma: {summary}.", reported=need, recomputed=mid,
                           details={**details, "required": need}, **about)
     elif sig.global_sigma is None:
-        yield Finding("pass", f"No global significance is printed; {summary}.", recomputed=mid, details=details,
+        yield Finding("info", f"No global significance is printed; {summary}.", recomputed=mid, details=details,
                       statement="global_only", recomputed_range=Span(*gsigma), tolerance=tol)
 
 

@@ -397,7 +397,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                        {"field": sig.p_value.path, "statement": "p_vs_inputs", "printed": Shown.of(sig.p_value),
                         "recomputed_range": _log10_span(mine.log_p), "tolerance": tol}, sig.stated)
     if sig.sigma is None and sig.p_value is None:
-        yield Finding("pass", f"No significance is printed; estimate, threshold and errors give "
+        yield Finding("info", f"No significance is printed; estimate, threshold and errors give "
                       f"{span_text(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",
                       recomputed=sigma_mid, details={**details, "quantity": "sigma"}, statement="inputs_only",
                       recomputed_range=Span(*mine.sigma), tolerance=tol)

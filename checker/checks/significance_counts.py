@@ -147,7 +147,7 @@ def check(claim: Claim, sigma_vs_p) -> Iterator[Finding]:
     yield from _printed(claim, results, tol)
     box = results[stated[0]][0]
     if sig.sigma is None and sig.p_value is None:
-        yield Finding("pass", f"No significance is printed; {claim.observed.text} events over "
+        yield Finding("info", f"No significance is printed; {claim.observed.text} events over "
                       f"{claim.background.text} give {span_text(box)} sigma by {METHOD_WORDS[stated[0][0]]}.",
                       recomputed=sum(box) / 2, statement="inputs_only", recomputed_range=Span(*box), tolerance=tol)
     if sig.required_sigma is not None:

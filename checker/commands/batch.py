@@ -85,6 +85,7 @@ def run(args, stdout, stderr) -> int:
     from ..render.survey_text import render_batch_text, render_problems
     from ..survey import run_batch
     from ..visible import visible
+    from ..wording import plural
 
     fmt = None
     inputs = _inputs(Path(args.table))
@@ -117,5 +118,5 @@ def run(args, stdout, stderr) -> int:
         stderr.write(visible(render_problems(result.problems)))
     stdout.write(render_batch_text(result.frame, result.summary))
     if args.out is not None:
-        stdout.write(f"wrote {len(result.frame):,} rows to {args.out}\n")
+        stdout.write(f"wrote {plural(len(result.frame), 'row')} to {args.out}\n")
     return result.exit_status

@@ -279,6 +279,9 @@ def render_html(report: Report, claim: Claim) -> str:
     agreed = list(points(report, claim, ("pass",)))
     if agreed:
         sections.append(("What agrees", _brief_list(agreed), "agrees"))
+    informed = list(points(report, claim, ("info",)))
+    if informed:
+        sections.append(("For information", _brief_list(informed), "for-information"))
     skipped = list(points(report, claim, ("skip",)))
     if skipped:
         sections.append(("Not checked", _brief_list(skipped), "not-checked"))

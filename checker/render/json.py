@@ -53,6 +53,9 @@ def report_to_dict(report: Report) -> dict:
         "title": report.title,
         "file": report.file,
         "verdict": report.verdict,
+        # How many findings of each status; "info" is a value recomputed where nothing was
+        # printed to compare it with, counted neither as agreeing nor as checked.
+        "counts": report.counts(),
         "findings": [finding_to_dict(f) for f in report.findings],
     }
 

@@ -130,6 +130,12 @@ def render_markdown(report: Report, claim: Claim) -> str:
         out += ["## What agrees", ""]
         out += _brief_passes(agreed)
         out.append("")
+    informed = list(points(report, claim, ("info",)))
+    if informed:
+        # Values recomputed where the claim printed none: neither agreement nor a flag.
+        out += ["## For information", ""]
+        out += [f"- {md(p.heading)}: {md(p.message)}" for p in informed]
+        out.append("")
     skipped = list(points(report, claim, ("skip",)))
     if skipped:
         out += ["## Not checked", ""]

@@ -213,6 +213,9 @@ def summary_lines(report: Report) -> tuple[str, str]:
         first = (f"claimcheck held this claim's printed numbers against what its own inputs imply, "
                  f"in {checked} {'comparison' if checked == 1 else 'comparisons'}: {_join(parts)}"
                  + (f"; {c['skip']} more could not be made for want of inputs." if c["skip"] else "."))
+    if c.get("info"):
+        first += (f" {c['info']} {'value is' if c['info'] == 1 else 'values are'} recomputed for "
+                  "information, with nothing printed to compare.")
     verdict = report.verdict
     if verdict == "inconsistent":
         flagged = ", ".join(title_of(i).lower() for i in report.failed_checks())

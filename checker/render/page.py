@@ -16,7 +16,7 @@ import re
 from html import escape
 from typing import Any, Iterable, Sequence
 
-from ..report import Report
+from ..report import Report, tally_statuses
 from ..vocabulary import CAUTION, STATUS_WORDS, TALLY_WORDS, VERDICT_SENTENCES
 from .notes import one_line, summary_lines
 
@@ -25,7 +25,7 @@ CSP = "default-src 'none'; style-src 'unsafe-inline'; img-src data:; base-uri 'n
 STYLE = """
 :root {
   --ink: #1f2430; --muted: #5b6270; --faint: #c9ccd3; --paper: #fffdf8; --panel: #f3f0e8;
-  --accent: #1d4f91; --fail: #a3242b; --warn: #8a5200; --pass: #1f6b4f; --skip: #5b6270;
+  --accent: #1d4f91; --fail: #a3242b; --warn: #8a5200; --pass: #1f6b4f; --skip: #5b6270; --info: #2d5f8a;
 }
 * { box-sizing: border-box; }
 html { font-size: clamp(16px, 0.55vw + 11px, 24px); }
@@ -62,7 +62,7 @@ nav.cc-contents a { color: var(--accent); }
   text-transform: uppercase; letter-spacing: 0.08em; white-space: nowrap; }
 .cc-mark svg { width: 0.95rem; height: 0.95rem; flex: none; }
 .cc-fail { color: var(--fail); } .cc-warn { color: var(--warn); }
-.cc-pass { color: var(--pass); } .cc-skip { color: var(--skip); }
+.cc-pass { color: var(--pass); } .cc-skip { color: var(--skip); } .cc-info { color: var(--info); }
 h3.cc-group { font-size: 0.85rem; text-transform: uppercase; letter-spacing: 0.1em; color: var(--muted);
   margin: 1rem 0 0.4rem; }
 .cc-tiles { display: grid; grid-template-columns: repeat(auto-fill, minmax(11rem, 1fr)); gap: 0.55rem; }
@@ -117,6 +117,9 @@ SHAPES = {
             '<path d="M4.6 8.3 L7 10.6 L11.5 5.6" stroke="#fff" stroke-width="1.9" fill="none"/>',
     "skip": '<circle cx="8" cy="8" r="5.6" stroke="currentColor" stroke-width="1.8" fill="none"/>'
             '<rect x="5" y="7.2" width="6" height="1.6" fill="currentColor"/>',
+    # for information: a diamond holding an "i" (a value recomputed, nothing printed to compare)
+    "info": '<path d="M8 1 L15 8 L8 15 L1 8 Z" fill="currentColor"/>'
+            '<rect x="7.1" y="7" width="1.8" height="5" fill="#fff"/><rect x="7.1" y="4.2" width="1.8" height="1.8" fill="#fff"/>',
 }
 VERDICT_STATUS = {"inconsistent": "fail", "consistent": "pass", "incomplete": "skip"}
 
@@ -220,7 +223,7 @@ def verdict_panel(report: Report) -> str:
     first, second = summary_lines(report)
     c = report.counts()
     tally = "".join(f"<span>{c[s]} {escape(TALLY_WORDS[s][c[s] != 1])}</span>"
-                    for s in ("fail", "warn", "pass", "skip"))
+                    for s in tally_statuses(c))
     return (f'<section class="cc-verdict {verdict}" id="verdict" aria-label="Verdict">'
             f'<div class="cc-big cc-{VERDICT_STATUS[verdict]}">{shape(VERDICT_STATUS[verdict])}'
             f"{escape(verdict)}</div><div class=\"cc-tally\">{tally}</div>"

@@ -187,14 +187,16 @@ def _brief(findings: Iterable[Finding]) -> str:
 def _findings_section(findings: Sequence[Finding]) -> str:
     shown, same = visible_findings(findings)
     raised = [f for f in shown if f.status in ("fail", "warn")]
-    rest = [f for f in shown if f.status in ("pass", "skip")]
+    rest = [f for f in shown if f.status in ("pass", "info", "skip")]
     out = []
     if raised:
         out.append("\n".join(_card(n, f) for n, f in enumerate(raised, 1)))
     else:
         out.append(_note("Nothing to raise: no finding is a flag or a note."))
     if rest:
-        out.append('<h3 class="cc-group">Agrees, or not checked</h3>' + _brief(rest))
+        what = "Agrees, for information, or not checked" if any(f.status == "info" for f in rest) \
+            else "Agrees, or not checked"
+        out.append(f'<h3 class="cc-group">{what}</h3>' + _brief(rest))
     if same:
         out.append(_note(f"{same} claim check(s) rerun with the raw data's numbers say the same as with the "
                          "printed numbers and are not repeated; --json lists them."))

@@ -5,7 +5,8 @@ from __future__ import annotations
 
 
 from .. import wording
-from ..vocabulary import CAUTION_SHORT, FIT_TEST_NAMES as TEST_WORDS, METRIC_NAMES as METRIC_WORDS, STATUS_MARKS
+from ..report import STATUSES, tally_statuses
+from ..vocabulary import COUNT_WORDS, CAUTION_SHORT, FIT_TEST_NAMES as TEST_WORDS, METRIC_NAMES as METRIC_WORDS, STATUS_MARKS
 from ..wording import p_equals
 AT_WORDS = {"fitted": "fitted", "threshold": "threshold", "zero": "zero"}
 MAX_CIRCUIT_LINES = 12
@@ -76,9 +77,9 @@ def render_raw_text(result) -> str:
         if same:
             lines.append(f"       ({same} claim check(s) give the same result with the raw data's numbers; "
                          "--json lists them)")
-        counts = {s: sum(f.status == s for f in result.findings) for s in ("fail", "warn", "pass", "skip")}
-        lines += ["", f"verdict: {result.verdict} ({counts['fail']} flagged, {counts['warn']} noted, "
-                  f"{counts['pass']} agree, {counts['skip']} not checked)"]
+        counts = {s: sum(f.status == s for f in result.findings) for s in STATUSES}
+        tally = ", ".join(f"{counts[s]} {COUNT_WORDS[s]}" for s in tally_statuses(counts))
+        lines += ["", f"verdict: {result.verdict} ({tally})"]
         if counts["fail"] or counts["warn"]:
             lines.append(CAUTION_SHORT)
     return "\n".join(lines) + "\n"

@@ -3,7 +3,7 @@ the verdict."""
 
 from __future__ import annotations
 
-from ..report import Report
+from ..report import Report, tally_statuses
 from ..visible import visible
 from ..vocabulary import CAUTION_SHORT, COUNT_WORDS, STATUS_MARKS, verdict_line
 
@@ -15,7 +15,7 @@ def render_text(report: Report) -> str:
         label = f" [{f.details['part']}]" if "part" in f.details and f.details["part"] not in f.message else ""
         lines.append(f"{STATUS_MARKS[f.status]} {f.check:<{width}}  {f.message}{label}")
     counts = report.counts()
-    tally = ", ".join(f"{counts[s]} {COUNT_WORDS[s]}" for s in ("fail", "warn", "pass", "skip"))
+    tally = ", ".join(f"{counts[s]} {COUNT_WORDS[s]}" for s in tally_statuses(counts))
     lines += ["", f"verdict: {verdict_line(report.verdict)} ({tally})"]
     if report.verdict == "inconsistent" or counts["warn"]:
         lines.append(CAUTION_SHORT)

@@ -50,6 +50,7 @@ class ClaimRecord:
     noted: int = 0
     agree: int = 0
     not_checked: int = 0
+    for_information: int = 0
     sigma_printed: str = ""
     p_printed: str = ""
     required_sigma: float = NAN
@@ -63,7 +64,7 @@ class ClaimRecord:
 COLUMNS = ("source", "title", "verdict", "failed_checks", "sigma_recomputed", "p_recomputed",
            "p_holm", "p_bh", "required_sigma", "clears_required", "clears_holm", "clears_bh",
            "sigma_holm", "sigma_bh", "sigma_printed", "p_printed", "metric", "claim_source",
-           "flagged", "noted", "agree", "not_checked", "problem")
+           "flagged", "noted", "agree", "not_checked", "for_information", "problem")
 
 
 
@@ -122,6 +123,7 @@ def claim_record(claim, report, source: str) -> ClaimRecord:
         source=source, title=claim.title, claim_source=claim.source or "", metric=claim.metric,
         verdict=report.verdict, failed_checks=";".join(report.failed_checks()), flagged=counts["fail"],
         noted=counts["warn"], agree=counts["pass"], not_checked=counts["skip"],
+        for_information=counts["info"],
         sigma_printed=sig.sigma.text if sig.sigma else "", p_printed=sig.p_value.text if sig.p_value else "",
         required_sigma=_value(sig.required_sigma), sigma=sigma, log_p=log_p, two_sided=sig.sided == "two")
 
@@ -269,6 +271,7 @@ def summarize(records: list, name: str, unit: str = "row"):
         "claim_source": col["claim_source"],
         "flagged": np.asarray(col["flagged"], dtype=int), "noted": np.asarray(col["noted"], dtype=int),
         "agree": np.asarray(col["agree"], dtype=int), "not_checked": np.asarray(col["not_checked"], dtype=int),
+        "for_information": np.asarray(col["for_information"], dtype=int),
         "problem": col["problem"],
     }, columns=list(COLUMNS))
     verdicts = {v: int(sum(1 for x in col["verdict"] if x == v)) for v in VERDICTS}

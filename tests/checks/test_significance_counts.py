@@ -67,7 +67,7 @@ def test_signal_yield_is_observed_minus_background():
 def test_deep_tail_counts_stay_finite():
     # 2000 events over 3: far below the double range (scipy's poisson.logsf is -inf here)
     f = one("observed: 2000\nbackground: 3\n", "inputs_only")
-    assert f.status == "pass" and f.recomputed > 100
+    assert f.status == "info" and f.recomputed > 100
 
 
 def test_required_sigma():

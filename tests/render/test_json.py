@@ -21,8 +21,9 @@ def test_contract_keys():
     f = Finding("fail", "x.", reported=0.0253, recomputed=0.0127, reproduced_by={"sided": "two"},
                 details={"sigma_low": 2.2}).from_check("significance")
     data = strict(render_json(Report("t", "c.yaml", (f,))))
-    # DESIGN.md, "Output contract".
-    assert set(data) == {"title", "file", "verdict", "findings"}
+    # DESIGN.md, "Output contract", and (issue 16) how many findings of each status.
+    assert set(data) == {"title", "file", "verdict", "counts", "findings"}
+    assert data["counts"] == {"pass": 0, "warn": 0, "fail": 1, "skip": 0, "info": 0}
     assert data["findings"] == [{"check": "significance", "status": "fail", "message": "x.", "reported": 0.0253,
                                  "recomputed": 0.0127, "reproduced_by": {"sided": "two"},
                                  "details": {"sigma_low": 2.2}, "field": None, "statement": None,
