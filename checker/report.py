@@ -41,6 +41,10 @@ class Shown:
     log10_low, log10_high : float or None
         log10 of the ends, exact where the values underflow; None where an end
         is zero or negative.
+    log10_value : float or None
+        log10 of the printed value itself, read from its text, so that a
+        printed ``1e-400`` (whose value underflows to 0) keeps its size; None
+        for a value that is not above zero.
     """
 
     text: str
@@ -48,6 +52,7 @@ class Shown:
     high: float
     log10_low: float | None = None
     log10_high: float | None = None
+    log10_value: float | None = None
 
     @classmethod
     def of(cls, rep: Any) -> "Shown | None":
@@ -56,7 +61,7 @@ class Shown:
         if rep is None:
             return None
         return cls(rep.text, rep.low, rep.high, _log10(getattr(rep, "log_low", math.nan)),
-                   _log10(getattr(rep, "log_high", math.nan)))
+                   _log10(getattr(rep, "log_high", math.nan)), log10_of_printed(rep.text, rep.value))
 
 
 @dataclass(frozen=True)
@@ -71,6 +76,26 @@ class Span:
     def __post_init__(self) -> None:
         if self.scale not in SCALES:
             raise ValueError(f"scale must be one of {SCALES}, got {self.scale!r}")
+
+
+def log10_of_printed(text: str, value: float) -> float | None:
+    """log10 of a printed value: from its decimal text where the value underflows
+    (``"1e-400"`` -> -400.0; ``"< 1e-400"`` reads the bound), else from the value;
+    None for a value that is not above zero or a text that is not a number."""
+    if isinstance(value, (int, float)) and math.isfinite(value) and value > 0:
+        return math.log10(value)
+    if value != 0:
+        return None
+    from .stats.precision import is_number_text, parse_printed
+
+    body = text.strip().lstrip("<≤").strip() if isinstance(text, str) else ""
+    if not is_number_text(body):
+        return None
+    try:
+        log_value = parse_printed(body, exact=True).log_low
+    except ValueError:
+        return None
+    return _log10(log_value)
 
 
 def _log10(natural_log: float) -> float | None:

@@ -4,6 +4,7 @@ contract, and one line on stderr for every unusable input."""
 from __future__ import annotations
 
 import io
+import math
 import json
 from pathlib import Path
 
@@ -56,7 +57,8 @@ def test_nothing_checkable_is_incomplete_and_exit_zero(write_claim):
 
 
 FINDING_KEYS = {"check", "status", "message", "reported", "recomputed", "reproduced_by", "details",
-                "field", "statement", "printed", "recomputed_range", "tolerance", "title", "question"}
+                "field", "statement", "printed", "recomputed_range", "tolerance", "title", "question",
+                "log10_reported", "log10_recomputed"}
 
 
 @pytest.mark.parametrize("text", [CLEAN, FLAWED])
@@ -329,3 +331,75 @@ def test_a_value_with_nothing_printed_to_compare_is_for_information(write_claim,
     (row,) = strict_json((tmp_path / "t.json").read_text())["claims"]
     assert status == 0 and (row["agree"], row["for_information"]) == (1, 1)
     assert "wrote 1 row to" in out
+
+
+DEEP = """\
+title: Invented claim with a p below the double range
+metric: linear-xeb
+qubits: 30
+estimate: 2.24e-3
+stat_error: 0.05e-3
+threshold: 0
+significance: {{sigma: {sigma}, p_value: {p}}}
+"""
+
+
+@pytest.mark.parametrize("sigma, p", [("44.8", "1e-400"), ("37.0", "1e-300")])
+def test_log10_p_beside_every_p(write_claim, tmp_path, sigma, p):
+    # Issue 16: p = 1e-400 keeps its size in JSON, reports and the batch table; 1e-300 round-trips.
+    from scipy.stats import norm
+
+    path = write_claim(DEEP.format(sigma=sigma, p=p))
+    status, out, _ = cli("check", path, "--json", "--markdown", tmp_path / "n.md", "--html", tmp_path / "n.html")
+    found = strict_json(out)["findings"]  # strict: no NaN or Infinity
+    exponent = float(p.split("e")[1])
+    (vs_inputs,) = [f for f in found if f["statement"] == "p_vs_inputs"]
+    assert vs_inputs["printed"]["log10_value"] == exponent and vs_inputs["log10_reported"] == exponent
+    low, high = vs_inputs["log10_recomputed"]["low"], vs_inputs["log10_recomputed"]["high"]
+    # The recomputed z spans 2.235e-3/0.055e-3 to 2.245e-3/0.045e-3 ("0.05e-3" stands for
+    # 0.045e-3 to 0.055e-3); its one-sided p from scipy.stats.norm.logsf (reference library).
+    assert low == pytest.approx(norm.logsf(2.245 / 0.045) / math.log(10), rel=1e-6)
+    assert high == pytest.approx(norm.logsf(2.235 / 0.055) / math.log(10), rel=1e-6)
+    (vs_sigma,) = [f for f in found if f["statement"] == "sigma_vs_p"]
+    assert vs_sigma["log10_recomputed"]["low"] == pytest.approx(
+        norm.logsf(float(sigma) + 0.05) / math.log(10), rel=1e-6)
+    sigma_only = [f for f in found if f["statement"] == "sigma_vs_inputs"]
+    assert sigma_only[0]["log10_reported"] is None  # a sigma is not a p
+    notes = (tmp_path / "n.md").read_text()
+    assert "imply: `0`" not in notes and "<code>0</code>" not in (tmp_path / "n.html").read_text()
+    table = tmp_path / "t.csv"
+    table.write_text("title,metric,qubits,estimate,stat_error,threshold,significance.sigma,significance.p_value\n"
+                     f"Invented,linear-xeb,30,2.24e-3,0.05e-3,0,{sigma},{p}\n")
+    cli("batch", table, "--out", tmp_path / "t.json")
+    (row,) = strict_json((tmp_path / "t.json").read_text())["claims"]
+    assert row["log10_p_printed"] == exponent
+    # At the printed central values z = 2.24e-3 / 0.05e-3 = 44.8 (arithmetic).
+    assert row["log10_p_recomputed"] == pytest.approx(norm.logsf(44.8) / math.log(10), rel=1e-9)
+    assert row["log10_p_holm"] == row["log10_p_bh"] == row["log10_p_recomputed"]  # a family of one
+    cli("batch", table, "--out", tmp_path / "t.html")
+    assert '<td class="num">1.34e-438</td>' in (tmp_path / "t.html").read_text()
+    cli("batch", table, "--out", tmp_path / "t.csv.out.csv")
+    header, values = (tmp_path / "t.csv.out.csv").read_text().splitlines()
+    cells = dict(zip(header.split(","), values.split(",")))
+    assert float(cells["log10_p_printed"]) == exponent
+
+
+def test_batch_holds_a_claim_stating_trials_to_its_global_significance(tmp_path):
+    # Issue 16: local 3.5 sigma (p = 2.33e-4, scipy.stats.norm.sf) over 20 trials is, by Sidak,
+    # p = 1 - (1 - 2.33e-4)^20 = 4.64e-3, 2.60 sigma (Sidak 1967; arithmetic): short of 3.
+    from scipy.stats import norm
+
+    table = tmp_path / "t.csv"
+    table.write_text("title,metric,estimate,stat_error,threshold,significance.required_sigma,trials\n"
+                     "Invented best of 20,mean,0.535,0.010,0.5,3,20\n"
+                     "Invented single,mean,0.535,0.010,0.5,3,\n")
+    status, out, _ = cli("batch", table, "--out", tmp_path / "t.json")
+    data = strict_json((tmp_path / "t.json").read_text())
+    scan, single = data["claims"]
+    p_global = 1 - (1 - norm.sf(3.5)) ** 20
+    assert scan["look_elsewhere"] == "sidak" and scan["p_global"] == pytest.approx(p_global, rel=1e-9)
+    assert scan["sigma_global"] == pytest.approx(norm.isf(p_global), rel=1e-9)
+    assert scan["clears_required"] is False and single["clears_required"] is True
+    assert single["look_elsewhere"] == "" and single["sigma_global"] is None
+    assert data["summary"]["clear_required_sigma"]["recomputed"] == 1
+    assert "global) significance for 1 claim that states trials (Sidak), the local one for the other 1" in out

@@ -26,10 +26,45 @@ def clean(value: Any) -> Any:
     return str(value)
 
 
+def is_about_p(f: Finding) -> bool:
+    """A finding about a p-value: its printed number is one (a ``p_value``
+    field) or its recomputed range is kept as log10 (the scale of p-values)."""
+    field = f.field or ""
+    return (field == "p_value" or field.endswith(".p_value")
+            or (f.recomputed_range is not None and f.recomputed_range.scale == "log10"))
+
+
+def _log10(x: Any) -> float | None:
+    if isinstance(x, bool) or not isinstance(x, (int, float)) or not math.isfinite(x) or x <= 0:
+        return None
+    return math.log10(x)
+
+
+def log10_p(f: Finding) -> tuple[float | None, dict | None]:
+    """For a finding about a p-value, (log10 of the printed p, {"low", "high"}:
+    log10 of both ends of the recomputed p); (None, None) for any other.  They
+    keep the size of a p below the double range (1e-400), where ``reported``
+    and ``recomputed`` are 0."""
+    if not is_about_p(f):
+        return None, None
+    reported = f.printed.log10_value if f.printed is not None else None
+    if reported is None:
+        reported = _log10(f.reported)
+    r = f.recomputed_range
+    if r is not None and r.scale == "log10":
+        low, high = clean(float(r.low)), clean(float(r.high))
+        recomputed = {"low": low, "high": high} if low is not None or high is not None else None
+    else:
+        one = _log10(f.recomputed)
+        recomputed = {"low": one, "high": one} if one is not None else None
+    return clean(reported), recomputed
+
+
 def finding_to_dict(f: Finding) -> dict:
     from .notes import make_point  # the words of the referee notes: title and question
 
     point = make_point(f)
+    log10_reported, log10_recomputed = log10_p(f)
     return {
         "check": f.check,
         "status": f.status,
@@ -43,6 +78,9 @@ def finding_to_dict(f: Finding) -> dict:
         "printed": clean(asdict(f.printed)) if f.printed is not None else None,
         "recomputed_range": clean(asdict(f.recomputed_range)) if f.recomputed_range is not None else None,
         "tolerance": clean(f.tolerance),
+        # log10 p beside every p (issue 16): null for a finding that is not about a p-value
+        "log10_reported": log10_reported,
+        "log10_recomputed": log10_recomputed,
         "title": point.heading,
         "question": point.question,
     }

@@ -110,6 +110,9 @@ def implied_text(finding: Finding) -> str | None:
             if _is_number(r.high) and r.high > -300 and (not _is_number(r.low) or r.low > -300):
                 low = 10.0 ** r.low if _is_number(r.low) else 0.0
                 return num_range(low, 10.0 ** r.high, 2)
+            if _is_number(r.high) and _is_number(r.low):
+                # below the double range: from the logs (1.4e-439, never 0)
+                return wording.p_range_text((r.low * wording.LN10, r.high * wording.LN10))
         elif _is_number(r.low) and _is_number(r.high):
             return num_range(r.low, r.high)
     if finding.recomputed is not None and _is_number(finding.recomputed):

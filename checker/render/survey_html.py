@@ -10,15 +10,16 @@ from html import escape
 from .page import CSP
 
 from ..vocabulary import CAUTION_SHORT
-from ..wording import plural
-from .survey_text import verb, frame_records
+from ..wording import LN10, p_text, plural
+from .survey_text import frame_records, look_elsewhere_sentence, verb
 
 _COLUMNS = (
     ("source", "source"), ("title", "claim"), ("verdict", "verdict"), ("failed_checks", "flagged checks"),
     ("sigma_printed", "sigma printed"), ("sigma_recomputed", "sigma recomputed"),
     ("p_recomputed", "p recomputed"), ("p_holm", "p Holm"), ("p_bh", "p BH"),
     ("required_sigma", "required sigma"), ("clears_required", "clears"), ("clears_holm", "after Holm"),
-    ("clears_bh", "after BH"), ("problem", "why unusable"),
+    ("clears_bh", "after BH"), ("look_elsewhere", "look-elsewhere"), ("sigma_global", "global sigma"),
+    ("problem", "why unusable"),
 )
 
 _STYLE = """
@@ -35,7 +36,19 @@ div.wide td { max-width: 30em; overflow-wrap: anywhere; }
 """
 
 
-def _cell(key: str, value) -> str:
+_P_COLUMNS = ("p_recomputed", "p_holm", "p_bh")
+
+
+def _p(key: str, value: float, row: dict | None) -> str:
+    """A p-value cell, written from its log10 column (exact where p underflows:
+    1.4e-439, never 0)."""
+    log10 = (row or {}).get("log10_" + key)
+    if value < 1e-300 and isinstance(log10, float) and math.isfinite(log10):
+        return p_text(log10 * LN10, 3)
+    return f"{value:.3g}"
+
+
+def _cell(key: str, value, row: dict | None = None) -> str:
     if value is None:
         return '<td></td>'
     if isinstance(value, bool):
@@ -43,6 +56,8 @@ def _cell(key: str, value) -> str:
     if isinstance(value, float):
         if not math.isfinite(value):
             return '<td class="num"></td>'
+        if key in _P_COLUMNS:
+            return f'<td class="num">{escape(_p(key, value, row))}</td>'
         text = f"{value:.4g}" if key.startswith("sigma") or key == "required_sigma" else f"{value:.3g}"
         return f'<td class="num">{escape(text)}</td>'
     text = str(value)
@@ -65,11 +80,14 @@ def render_batch_html(frame, summary: dict) -> str:
         f"{clear['holm']:,} after Holm and {clear['bh']:,} after Benjamini-Hochberg adjustment across "
         f"{plural(summary['tested'], 'recomputed p-value')}.",
     ]
+    corrected = look_elsewhere_sentence(summary)
+    if corrected:
+        facts.append(corrected[:1].upper() + corrected[1:] + ".")
     head = "".join(f"<th>{escape(label)}</th>" for _, label in _COLUMNS)
     body = []
     for row in frame_records(frame):
         verdict = str(row.get("verdict") or "")
-        cells = "".join(_cell(key, row.get(key)) for key, _ in _COLUMNS)
+        cells = "".join(_cell(key, row.get(key), row) for key, _ in _COLUMNS)
         body.append(f'<tr class="{escape(verdict, quote=True)}">{cells}</tr>')
     title = f"claimcheck batch: {summary['table']}"
     return (

@@ -18,6 +18,25 @@ def verb(n: int, many: str, one: str | None = None) -> str:
     return (one or many + "s") if n == 1 else many
 
 
+def look_elsewhere_sentence(summary: dict) -> str:
+    """Which significance the required-sigma count and the adjustment used, for
+    the claims that state trials or upcrossings; "" when none does."""
+    n = summary.get("look_elsewhere_corrected", 0)
+    if not n:
+        return ""
+    methods = summary.get("look_elsewhere_methods", {})
+    which = []
+    for key, what, how in (("sidak", "trials", "Sidak"), ("gross-vitells", "upcrossings", "Gross-Vitells")):
+        k = methods.get(key, 0)
+        if k:
+            noun = plural(k, "claim") if not which else f"{k:,}"
+            which.append(f"{noun} that {verb(k, 'state')} {what} ({how})")
+    rest = summary.get("tested", 0) - n
+    return ("the required-sigma count and the adjustment use the look-elsewhere-corrected (global) "
+            f"significance for {' and '.join(which)}"
+            + (f", the local one for the other {rest:,}" if rest > 0 else ""))
+
+
 def render_batch_text(frame, summary: dict) -> str:
     """The summary a person reads first: counts, the adjusted tally, and the
     claims that were flagged."""
@@ -39,6 +58,9 @@ def render_batch_text(frame, summary: dict) -> str:
     elif summary["tested"]:
         lines.append(f"adjusted across {plural(summary['tested'], 'recomputed p-value')}; "
                      "no claim states a required_sigma to hold them against")
+    corrected = look_elsewhere_sentence(summary)
+    if corrected:
+        lines.append(f"look-elsewhere: {corrected}")
     flagged = frame[frame["verdict"] == "inconsistent"]
     if len(flagged):
         lines += ["", "inconsistent:"]

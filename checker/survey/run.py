@@ -22,6 +22,7 @@ from ..checks import run_checks
 from ..claim import claim_from_document, read_claim
 from ..claim.model import build_claim
 from ..errors import ClaimcheckError
+from ..report import log10_of_printed
 from ..visible import visible
 from .columns import ColumnPlan
 from .table import Folder, Row, SurveyTable, read_source
@@ -53,9 +54,15 @@ class ClaimRecord:
     for_information: int = 0
     sigma_printed: str = ""
     p_printed: str = ""
+    log10_p_printed: float = NAN
     required_sigma: float = NAN
     sigma: float = NAN
     log_p: float = NAN
+    # The look-elsewhere-corrected (global) significance at the same central values, for a
+    # claim that states trials (Sidak) or upcrossings (Gross-Vitells); "" and NaN otherwise.
+    look_elsewhere: str = ""
+    sigma_global: float = NAN
+    log_p_global: float = NAN
     two_sided: bool = False
     problem: str = ""
 
@@ -63,7 +70,9 @@ class ClaimRecord:
 # The summary table's columns, in order (DESIGN.md fixes the first names).
 COLUMNS = ("source", "title", "verdict", "failed_checks", "sigma_recomputed", "p_recomputed",
            "p_holm", "p_bh", "required_sigma", "clears_required", "clears_holm", "clears_bh",
-           "sigma_holm", "sigma_bh", "sigma_printed", "p_printed", "metric", "claim_source",
+           "sigma_holm", "sigma_bh", "look_elsewhere", "sigma_global", "p_global", "log10_p_global",
+           "sigma_printed", "p_printed", "log10_p_printed", "log10_p_recomputed",
+           "log10_p_holm", "log10_p_bh", "metric", "claim_source",
            "flagged", "noted", "agree", "not_checked", "for_information", "problem")
 
 
@@ -102,6 +111,14 @@ def _value(rep) -> float:
     return rep.value if rep is not None else NAN
 
 
+def _log10_printed(rep) -> float:
+    # log10 of a printed p from its text, so that 1e-400 keeps its size (checker.report)
+    if rep is None:
+        return NAN
+    value = log10_of_printed(rep.text, rep.value)
+    return NAN if value is None else value
+
+
 def recomputed_significance(report) -> tuple[float, float]:
     """(z, natural log p) of a claim as its ``significance`` check recomputed
     them at the printed central values; NaN when it could not.
@@ -114,18 +131,42 @@ def recomputed_significance(report) -> tuple[float, float]:
     return NAN, NAN
 
 
+def global_significance(claim, sigma: float, log_p: float) -> tuple[str, float, float]:
+    """(method, z, natural log p) after the look-elsewhere correction the claim
+    calls for: Gross-Vitells when it states upcrossings at a reference level,
+    else Sidak when it states trials, as the ``look-elsewhere`` check takes
+    them; ("", NaN, NaN) when it states neither or there is no local value."""
+    from ..stats.multiplicity import log_gross_vitells, log_sidak
+    from ..stats.tails import sigma_from_log_p
+
+    sig = claim.significance
+    if not (math.isfinite(sigma) and math.isfinite(log_p)):
+        return "", NAN, NAN
+    if sig.upcrossings is not None and sig.upcrossing_sigma is not None:
+        method = "gross-vitells"
+        log_g = log_gross_vitells(log_p, sigma, sig.upcrossings.value, sig.upcrossing_sigma.value)
+    elif claim.trials is not None and claim.trials.value >= 1:
+        method, log_g = "sidak", log_sidak(log_p, claim.trials.value)
+    else:
+        return "", NAN, NAN
+    return method, sigma_from_log_p(log_g, sig.sided), log_g
+
+
 def claim_record(claim, report, source: str) -> ClaimRecord:
     """The record of one checked claim: its verdict, counts and recomputed significance."""
     sig = claim.significance
     counts = report.counts()
     sigma, log_p = recomputed_significance(report)
+    method, sigma_global, log_p_global = global_significance(claim, sigma, log_p)
     return ClaimRecord(
         source=source, title=claim.title, claim_source=claim.source or "", metric=claim.metric,
         verdict=report.verdict, failed_checks=";".join(report.failed_checks()), flagged=counts["fail"],
         noted=counts["warn"], agree=counts["pass"], not_checked=counts["skip"],
         for_information=counts["info"],
         sigma_printed=sig.sigma.text if sig.sigma else "", p_printed=sig.p_value.text if sig.p_value else "",
-        required_sigma=_value(sig.required_sigma), sigma=sigma, log_p=log_p, two_sided=sig.sided == "two")
+        log10_p_printed=_log10_printed(sig.p_value),
+        required_sigma=_value(sig.required_sigma), sigma=sigma, log_p=log_p, look_elsewhere=method,
+        sigma_global=sigma_global, log_p_global=log_p_global, two_sided=sig.sided == "two")
 
 
 def unusable_record(source: str, problem: str, title: str = "") -> ClaimRecord:
@@ -241,9 +282,17 @@ def summarize(records: list, name: str, unit: str = "row"):
     two = np.asarray(col["two_sided"], dtype=bool)
     sigma = np.asarray(col["sigma"], dtype=float)
     log_p = np.asarray(col["log_p"], dtype=float)
+    sigma_global = np.asarray(col["sigma_global"], dtype=float)
+    log_p_global = np.asarray(col["log_p_global"], dtype=float)
+    corrected = np.asarray([bool(m) for m in col["look_elsewhere"]], dtype=bool)
     with np.errstate(under="ignore"):
         p = np.exp(log_p)
-    adjusted = adjust_log_p_values(log_p)
+        p_global = np.exp(log_p_global)
+    # A claim that states trials or upcrossings is held to its required sigma, and adjusted
+    # across the set, by its look-elsewhere-corrected significance; any other by its local one.
+    sigma_used = np.where(corrected, sigma_global, sigma)
+    log_p_used = np.where(corrected, log_p_global, log_p)
+    adjusted = adjust_log_p_values(log_p_used)
     sigma_holm = sigma_from_log_p(adjusted.log_p_holm, two)
     sigma_bh = sigma_from_log_p(adjusted.log_p_bh, two)
     need = np.asarray(col["required_sigma"], dtype=float)
@@ -252,7 +301,7 @@ def summarize(records: list, name: str, unit: str = "row"):
         known = np.isfinite(need) & ~np.isnan(sigma)
         return known, np.where(known, sigma >= need, False)
 
-    known, raw = clears(sigma)
+    known, raw = clears(sigma_used)
     _, holm = clears(sigma_holm)
     _, bh = clears(sigma_bh)
 
@@ -266,8 +315,13 @@ def summarize(records: list, name: str, unit: str = "row"):
         "failed_checks": col["failed_checks"], "sigma_recomputed": sigma, "p_recomputed": p,
         "p_holm": adjusted.p_holm, "p_bh": adjusted.p_bh, "required_sigma": need,
         "clears_required": maybe(raw), "clears_holm": maybe(holm), "clears_bh": maybe(bh),
-        "sigma_holm": sigma_holm, "sigma_bh": sigma_bh,
-        "sigma_printed": col["sigma_printed"], "p_printed": col["p_printed"], "metric": col["metric"],
+        "sigma_holm": sigma_holm, "sigma_bh": sigma_bh, "look_elsewhere": col["look_elsewhere"],
+        "sigma_global": sigma_global, "p_global": p_global, "log10_p_global": log_p_global / LN10,
+        "sigma_printed": col["sigma_printed"], "p_printed": col["p_printed"],
+        # log10 p beside every p: exact where p itself underflows to 0 (issue 16)
+        "log10_p_printed": np.asarray(col["log10_p_printed"], dtype=float),
+        "log10_p_recomputed": log_p / LN10, "log10_p_holm": adjusted.log_p_holm / LN10,
+        "log10_p_bh": adjusted.log_p_bh / LN10, "metric": col["metric"],
         "claim_source": col["claim_source"],
         "flagged": np.asarray(col["flagged"], dtype=int), "noted": np.asarray(col["noted"], dtype=int),
         "agree": np.asarray(col["agree"], dtype=int), "not_checked": np.asarray(col["not_checked"], dtype=int),
@@ -284,6 +338,11 @@ def summarize(records: list, name: str, unit: str = "row"):
         "verdicts": {k: verdicts[k] for k in VERDICTS[:3]},
         "tested": adjusted.tested,
         "with_required_sigma": int(known.sum()),
+        # claims whose required-sigma test and adjustment used the look-elsewhere-corrected value
+        "look_elsewhere_corrected": int(corrected[~np.isnan(log_p_used)].sum()),
+        "look_elsewhere_methods": {m: int(sum(1 for x, ok in zip(col["look_elsewhere"], ~np.isnan(log_p_used))
+                                               if x == m and ok)) for m in ("sidak", "gross-vitells")},
+        "look_elsewhere_required": int((known & corrected).sum()),
         "clear_required_sigma": {"recomputed": int(raw[known].sum()), "holm": int(holm[known].sum()),
                                  "bh": int(bh[known].sum())},
     }

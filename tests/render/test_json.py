@@ -28,6 +28,7 @@ def test_contract_keys():
                                  "recomputed": 0.0127, "reproduced_by": {"sided": "two"},
                                  "details": {"sigma_low": 2.2}, "field": None, "statement": None,
                                  "printed": None, "recomputed_range": None, "tolerance": None,
+                                 "log10_reported": None, "log10_recomputed": None,
                                  "title": "Significance",
                                  "question": ("Was this number obtained under the two-sided convention "
                                               "(both tails)? Please say how it was computed.")}]
@@ -44,7 +45,9 @@ def test_self_describing_keys():
     d = strict(render_json(Report("t", "c.yaml", (f,))))["findings"][0]
     assert d["field"] == "significance.p_value" and d["statement"] == "p_vs_inputs"
     assert d["printed"] == {"text": "1e-400", "low": 0.0, "high": 0.0, "log10_low": -400.30103,
-                            "log10_high": -399.82391}
+                            "log10_high": -399.82391, "log10_value": None}
+    # log10 p beside the p (issue 16): the printed value's own log when the finding has one.
+    assert d["log10_recomputed"] == {"low": -402.1, "high": -401.7}
     assert d["recomputed_range"] == {"low": -402.1, "high": -401.7, "scale": "log10"}
     assert d["tolerance"] == 0.02
     # The check's own title and question (checker/checks/significance.py, SPEC).

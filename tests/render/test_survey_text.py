@@ -24,9 +24,13 @@ def test_text_summary_of_the_example(example):
     lines = text.splitlines()
     assert lines[0] == f"{EXAMPLE}: 11 rows; 10 claims checked, 1 row could not be used"
     assert lines[1] == "verdicts: 7 consistent, 3 inconsistent, 0 incomplete"
-    assert lines[2] == ("required sigma: 10 claims state one and have a recomputed significance; 10 clear it "
-                        "as recomputed, 9 after Holm and 10 after Benjamini-Hochberg adjustment across 10 "
+    assert lines[2] == ("required sigma: 10 claims state one and have a recomputed significance; 9 clear it "
+                        "as recomputed, 7 after Holm and 9 after Benjamini-Hochberg adjustment across 10 "
                         "recomputed p-values")
+    # Row 7 states trials: the count and the adjustment use its global significance, and say so.
+    assert lines[3] == ("look-elsewhere: the required-sigma count and the adjustment use the look-elsewhere-"
+                        "corrected (global) significance for 1 claim that states trials (Sidak), the local one "
+                        "for the other 9")
     assert "inconsistent:" in lines
     assert "  row 6  Linear XEB of an invented 24-qubit ring  [significance]" in lines
     assert lines[-1].startswith("A flag is a question for the authors")

@@ -110,7 +110,9 @@ def _bh_by_hand(p):
 def test_adjusted_columns_across_the_example(example):
     frame = example.frame
     tested = frame["p_recomputed"].notna()
-    p = frame.loc[tested, "p_recomputed"].to_numpy()
+    # A claim stating trials enters the family with its look-elsewhere-corrected p (issue 16).
+    used = frame["p_global"].where(frame["look_elsewhere"] != "", frame["p_recomputed"])
+    p = used[tested].to_numpy()
     np.testing.assert_allclose(frame.loc[tested, "p_holm"], _holm_by_hand(p), rtol=1e-12)
     np.testing.assert_allclose(frame.loc[tested, "p_bh"], _bh_by_hand(p), rtol=1e-12)
     assert example.summary["tested"] == int(tested.sum()) == 10
@@ -119,7 +121,15 @@ def test_adjusted_columns_across_the_example(example):
     row = frame.loc[9]
     assert bool(row["clears_required"]) and bool(row["clears_bh"]) and not bool(row["clears_holm"])
     assert row["p_holm"] == pytest.approx(7 * row["p_recomputed"], rel=1e-12)
-    assert example.summary["clear_required_sigma"] == {"recomputed": 10, "holm": 9, "bh": 10}
+    # Row 7 (best of 40 trials) is held to its required 3 sigma by its global significance:
+    # local 3.44 sigma, p = 2.9e-4; Sidak over 40 trials 1 - (1 - p)^40 = 0.0116, 2.27 sigma
+    # (Sidak 1967, J. Am. Stat. Assoc. 62, 626; arithmetic), which falls short.
+    row7 = frame.loc[6]
+    assert row7["look_elsewhere"] == "sidak" and row7["sigma_global"] == pytest.approx(2.2704, abs=1e-3)
+    assert row7["p_global"] == pytest.approx(1 - (1 - row7["p_recomputed"]) ** 40, rel=1e-9)
+    assert not bool(row7["clears_required"]) and row7["sigma_recomputed"] > 3
+    assert example.summary["clear_required_sigma"] == {"recomputed": 9, "holm": 7, "bh": 9}
+    assert example.summary["look_elsewhere_corrected"] == 1
     assert example.summary["with_required_sigma"] == 10
 
 
