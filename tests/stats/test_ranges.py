@@ -168,3 +168,21 @@ def test_linear_xeb_variance_range_vertex_inside():
     assert hi == pytest.approx(linear_xeb_variance(5.0 / 9.0, 4.0), rel=1e-14)
     assert lo == min(ends)
     assert math.isnan(linear_xeb_variance_range(math.nan, 1.0, 4.0)[0])
+
+
+# The log-XEB variance (mixture moments linear in F; pi^2/6 - F^2 in the large-D limit,
+# stats.porter_thomas, from memory of the Porter-Thomas log moments) against the search.
+@pytest.mark.parametrize("dimension", [None, 2.0, 4.0, 8.0, 64.0, 2.0 ** 12])
+@pytest.mark.parametrize("f_low, f_high", [(0.0, 1.0), (-0.3, 0.2), (0.2, 0.9), (0.4, 0.41), (0.9, 1.4),
+                                           (0.6, 0.6), (1.2, 1.5)])
+def test_log_xeb_variance_range_matches_search(dimension, f_low, f_high):
+    from checker.stats.porter_thomas import log_xeb_variance_finite
+    from checker.stats.ranges import concave_parabola_range
+
+    def v(f):
+        return log_xeb_variance_finite(min(max(f, 0.0), 1.0), dimension)
+
+    got = concave_parabola_range(lambda f: log_xeb_variance_finite(f, dimension), f_low, f_high)
+    assert got == pytest.approx(scalar_range(v, f_low, f_high), rel=1e-10, abs=1e-15)
+    grid = [v(f) for f in np.linspace(f_low, f_high, 20001)]
+    assert got[0] <= min(grid) + 1e-15 and got[1] >= max(grid) - 1e-15
