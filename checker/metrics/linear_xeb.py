@@ -35,5 +35,11 @@ class LinearXEB(MetricModel):
     def variance(self, value: float, inputs: ModelInputs) -> float:
         return linear_xeb_variance(_fidelity(value, inputs), inputs.dimension)
 
+    def variance_range(self, low: float, high: float, inputs: ModelInputs) -> tuple[float, float]:
+        from ..stats.ranges import linear_xeb_variance_range  # numpy: loaded only by the checks
+
+        # _fidelity is non-decreasing in the value, so the interval's ends map to F's ends.
+        return linear_xeb_variance_range(_fidelity(low, inputs), _fidelity(high, inputs), inputs.dimension)
+
     def circuit_variance(self, value: float, inputs: ModelInputs) -> float:
         return linear_xeb_circuit_variance(_fidelity(value, inputs), inputs.dimension)

@@ -32,5 +32,12 @@ class LogXEB(MetricModel):
     def variance(self, value: float, inputs: ModelInputs) -> float:
         return log_xeb_variance_finite(_fidelity(value, inputs), inputs.dimension)
 
+    def variance_range(self, low: float, high: float, inputs: ModelInputs) -> tuple[float, float]:
+        from ..stats.ranges import concave_parabola_range  # numpy: loaded only by the checks
+
+        # _fidelity is non-decreasing in the value (i > u), so the interval's ends map to F's ends.
+        return concave_parabola_range(lambda f: log_xeb_variance_finite(f, inputs.dimension),
+                                      _fidelity(low, inputs), _fidelity(high, inputs))
+
     def circuit_variance(self, value: float, inputs: ModelInputs) -> float:
         return log_xeb_circuit_variance(_fidelity(value, inputs), inputs.dimension)

@@ -146,6 +146,59 @@ def binomial_variance_range(low: float, high: float) -> Range:
     return (min(ends), peak)
 
 
+def linear_xeb_variance_range(f_low: float, f_high: float, dimension: float | None = None) -> Range:
+    """Exact range of the linear-XEB per-sample variance for a mixture weight F in
+    [f_low, f_high] (clipped to [0, 1]).
+
+    The moments of x under the mixture are linear in F (mean a + b F, second moment
+    c + e F; ``stats.porter_thomas.linear_xeb_moments``), so the variance
+    c + e F - (a + b F)^2 is a concave parabola in F with its vertex at
+    F* = (e - 2 a b) / (2 b^2): the minimum is at an end, the maximum at F* when it
+    lies inside, else at an end (the clip at 0 is monotone and keeps both).  Replaces
+    the grid-and-Brent search of ``scalar_range``, which the tests compare it with.
+    """
+    from .porter_thomas import linear_xeb_moments
+
+    if not (math.isfinite(f_low) and math.isfinite(f_high)):
+        return NAN_RANGE
+    a_f, b_f = min(max(f_low, 0.0), 1.0), min(max(f_high, 0.0), 1.0)
+    a, s0 = linear_xeb_moments(0.0, dimension)
+    m1, v1 = linear_xeb_moments(1.0, dimension)
+    slope = m1 - a  # b
+    e = (v1 + m1 * m1) - (s0 + a * a)  # the second moment's slope (the variance at F = 0 is not clipped)
+    ends = (linear_xeb_moments(a_f, dimension)[1], linear_xeb_moments(b_f, dimension)[1])
+    high = max(ends)
+    if slope != 0.0:
+        vertex = (e - 2.0 * a * slope) / (2.0 * slope * slope)
+        if a_f < vertex < b_f:
+            high = max(high, linear_xeb_moments(vertex, dimension)[1])
+    return (min(ends), high)
+
+
+def concave_parabola_range(fn: Callable[[float], float], f_low: float, f_high: float) -> Range:
+    """Range over [f_low, f_high] (clipped to [0, 1]) of a mixture variance fn(F) =
+    second(F) - mean(F)^2 whose moments are linear in F, so a concave parabola.
+
+    Three values at F = 0, 1/2, 1 fix the parabola; the minimum is at an end and the
+    maximum at its vertex when inside, else at an end.  Falls back to ``scalar_range``
+    when a value is not positive (fn clips the variance at 0) or the fit is not
+    concave.  The tests compare it with ``scalar_range``.
+    """
+    if not (math.isfinite(f_low) and math.isfinite(f_high)):
+        return NAN_RANGE
+    a, b = min(max(f_low, 0.0), 1.0), min(max(f_high, 0.0), 1.0)
+    q0, qh, q1 = fn(0.0), fn(0.5), fn(1.0)
+    c2 = 2.0 * (q0 - 2.0 * qh + q1)
+    if not (q0 > 0 and qh > 0 and q1 > 0 and c2 < 0 and all(map(math.isfinite, (q0, qh, q1)))):
+        return scalar_range(fn, a, b)
+    ends = (fn(a), fn(b))
+    high = max(ends)
+    vertex = -(q1 - q0 - c2) / (2.0 * c2)
+    if a < vertex < b:
+        high = max(high, fn(vertex))
+    return (min(ends), high)
+
+
 def _threshold_max(values: np.ndarray, w_low: np.ndarray, w_high: np.ndarray) -> float:
     """max over w in the box of sum w v / sum w (values fixed)."""
     order = np.argsort(-values, kind="stable")

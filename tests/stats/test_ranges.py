@@ -132,3 +132,57 @@ def test_sampling_error_range_of_a_proportion_at_one_half():
     assert lo <= b_lo + 1e-12 and hi >= b_hi - 1e-12
     # ... and no wider than random sampling reaches, beyond 0.01% (the exact peak is 1.05 x 0.05).
     assert hi == pytest.approx(0.0525) and hi - b_hi < 1e-5 and b_lo - lo < 1e-5
+
+
+# The linear-XEB variance's closed-form range (issue 13) against brute force over the interval:
+# the grid-and-Brent search it replaced and a dense grid.  Check values: the moments of
+# stats.porter_thomas (Boixo et al., Nature Physics 14, 595 (2018), arXiv:1608.00263).
+@pytest.mark.parametrize("dimension", [None, 2.0, 4.0, 16.0, 2.0 ** 20])
+@pytest.mark.parametrize("f_low, f_high", [(0.0, 1.0), (-0.3, 0.2), (0.2, 0.9), (0.4, 0.41), (0.9, 1.4),
+                                           (-0.5, -0.1), (0.6, 0.6), (1.2, 1.5)])
+def test_linear_xeb_variance_range_matches_search(dimension, f_low, f_high):
+    from checker.stats.porter_thomas import linear_xeb_variance
+    from checker.stats.ranges import linear_xeb_variance_range
+
+    def v(f):
+        return linear_xeb_variance(min(max(f, 0.0), 1.0), dimension)
+
+    got = linear_xeb_variance_range(f_low, f_high, dimension)
+    searched = scalar_range(v, f_low, f_high)
+    assert got == pytest.approx(searched, rel=1e-10, abs=1e-15)
+    grid = [v(f) for f in np.linspace(f_low, f_high, 20001)]
+    assert got[0] <= min(grid) + 1e-15 and got[1] >= max(grid) - 1e-15
+    assert got[0] == pytest.approx(min(grid), rel=1e-12) and got[1] == pytest.approx(max(grid), rel=1e-7)
+
+
+def test_linear_xeb_variance_range_vertex_inside():
+    # At D = 4 the parabola's vertex is inside [0, 1]: with E_ideal x = 2D/(D+1) and
+    # E_ideal x^2 = 6D^2/((D+1)(D+2)) (Porter-Thomas Beta(1, D - 1) moments, from memory),
+    # mean = 1 + (3/5) F and second moment = 8/5 + (8/5) F, so F* = (8/5 - 6/5)/(2 (3/5)^2) = 5/9.
+    from checker.stats.porter_thomas import linear_xeb_variance
+    from checker.stats.ranges import linear_xeb_variance_range
+
+    lo, hi = linear_xeb_variance_range(0.0, 1.0, 4.0)
+    ends = (linear_xeb_variance(0.0, 4.0), linear_xeb_variance(1.0, 4.0))
+    assert hi > max(ends)
+    assert hi == pytest.approx(linear_xeb_variance(5.0 / 9.0, 4.0), rel=1e-14)
+    assert lo == min(ends)
+    assert math.isnan(linear_xeb_variance_range(math.nan, 1.0, 4.0)[0])
+
+
+# The log-XEB variance (mixture moments linear in F; pi^2/6 - F^2 in the large-D limit,
+# stats.porter_thomas, from memory of the Porter-Thomas log moments) against the search.
+@pytest.mark.parametrize("dimension", [None, 2.0, 4.0, 8.0, 64.0, 2.0 ** 12])
+@pytest.mark.parametrize("f_low, f_high", [(0.0, 1.0), (-0.3, 0.2), (0.2, 0.9), (0.4, 0.41), (0.9, 1.4),
+                                           (0.6, 0.6), (1.2, 1.5)])
+def test_log_xeb_variance_range_matches_search(dimension, f_low, f_high):
+    from checker.stats.porter_thomas import log_xeb_variance_finite
+    from checker.stats.ranges import concave_parabola_range
+
+    def v(f):
+        return log_xeb_variance_finite(min(max(f, 0.0), 1.0), dimension)
+
+    got = concave_parabola_range(lambda f: log_xeb_variance_finite(f, dimension), f_low, f_high)
+    assert got == pytest.approx(scalar_range(v, f_low, f_high), rel=1e-10, abs=1e-15)
+    grid = [v(f) for f in np.linspace(f_low, f_high, 20001)]
+    assert got[0] <= min(grid) + 1e-15 and got[1] >= max(grid) - 1e-15
