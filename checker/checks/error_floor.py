@@ -19,7 +19,7 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats.ranges import sampling_error_range, scalar_range
 from ..wording import num, span_text
-from .common import flagged_error, skipped_words, above, below, count_for_error, metric_of, model_inputs
+from .common import fewer_samples_than_circuits, flagged_error, skipped_words, above, below, count_for_error, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 WARN_RATIO = 3.0
@@ -129,6 +129,12 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
     if flagged_error(error):
         yield Finding("skip", f"{what}: no floor compared; {skipped_words(error)}.",
                       details={**details, "skipped_input": error.path}, statement="needs_inputs")
+        return
+    total = samples if samples is not None else n
+    if fewer_samples_than_circuits(total, circuits):
+        yield Finding("skip", f"{what}: no floor compared; {total.text} samples from {circuits.text} circuits "
+                      "are not used: the physical-range check flags them.",
+                      details={**details, "skipped_input": total.path}, statement="needs_inputs")
         return
     if error is None or n is None:
         missing = (["stat_error"] if error is None else []) + ([model.count_field] if n is None else [])

@@ -339,11 +339,25 @@ def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree,
                    reproduced_by=reproduce, details=details, **about)
 
 
+def _systematic_not_printed(claim: Claim) -> Finding:
+    """``systematics: quadrature`` (or any treatment) with no ``syst_error``: the stated
+    convention has nothing to act on, which is a question for the authors (the paper may
+    name the treatment yet print no systematic error), not a reason to refuse the file."""
+    how = claim.significance.systematics
+    return Finding("warn", f"The claim states how the systematic error entered the significance "
+                   f"(systematics: {how}) but prints no syst_error, so only the statistical error can "
+                   "enter the recomputed significance.",
+                   details={"systematics": how, "missing": ["syst_error"]}, field="significance.systematics",
+                   statement="systematics_unprinted")
+
+
 def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     sig = claim.significance
     stated = stated_convention(claim)
     conventions = _conventions(claim)
     results = _Lazy(r for r in (recompute(claim, c) for c in conventions) if r is not None)
+    if stated["systematics"] != "none" and claim.syst_error is None:
+        yield _systematic_not_printed(claim)
     mine = next((r for r in results if r.convention == stated), None)
     if mine is None and flagged_error(claim.stat_error):
         yield Finding("skip", f"Cannot recompute the significance; {skipped_words(claim.stat_error)}.",
@@ -362,7 +376,12 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         yield Finding("skip", f"Cannot recompute the significance; needs {' and '.join(missing) or 'more inputs'}.",
                       details={"missing": missing}, statement="needs_inputs")
         return
-    conv_words = convention_text(stated)
+    # A stated treatment of a systematic error that is not printed adds nothing: say what was
+    # used (the statistical error alone), not the stated treatment, and note the gap.
+    unprinted = stated["systematics"] != "none" and claim.syst_error is None
+    conv_words = convention_text({**stated, "systematics": "none"} if unprinted else stated)
+    if unprinted:
+        conv_words += f"; the claim states systematics: {stated['systematics']} but prints no syst_error"
     # Whether the systematic error widened the null (the HTML picture draws it so).
     syst_in = stated["systematics"] != "none" and claim.syst_error is not None and claim.syst_error.value > 0
     if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and per_circuit(claim):
@@ -461,6 +480,9 @@ SPEC = CheckSpec(
                       "error over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached."),
             if_reproduced=("Is {what} reached only {reproduced}? The heavy-output criterion takes the error "
                            "over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached.")),
+        "systematics_unprinted": Statement(
+            question=("What systematic error entered the significance? The claim says how it was treated "
+                      "but prints none.")),
         "inputs_only": ABOUT_THE_CLAIM,
         "needs_inputs": ABOUT_THE_CLAIM,
         "signal_yield": Statement(

@@ -445,6 +445,14 @@ class _Builder:
                 if d.get(key) is not None:
                     self.fail((key,), f"{key} belongs to a counting experiment, but metric is {d['metric']}",
                               "write metric: counts, or leave out observed, background and background_error")
+        if d.get("integer_data") is True and d["metric"] != "mean":
+            # A field of another kind of claim, refused like observed above: integer_data says how
+            # a mean's responses were scored, which no other metric has.
+            kind = ("a proportion is already a count over whole items, and granularity tests it as one"
+                    if d["metric"] == "proportion" else f"a {d['metric']} estimate is not a mean of responses")
+            self.fail(("integer_data",), f"integer_data belongs to metric mean (a mean of whole-number "
+                      f"responses), but metric is {d['metric']}; {kind}",
+                      "leave integer_data out, or write metric: mean")
         if estimate is not None or counting or d.get("counts_table"):
             return
         only_significances = (sig.sigma is not None or sig.p_value is not None) and sig.global_sigma is not None
