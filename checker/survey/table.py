@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import csv
 import io
+import itertools
 import math
 import os
 import stat
@@ -169,48 +170,12 @@ def parse_delimited(text: str, name: str, delimiter: str = ",") -> SurveyTable:
     are checked, where read_csv stops the whole table; and every cell stays
     the text written.
     """
-    handle = io.StringIO(text, newline="")
-    skipped = 0
-    # Comment lines before the header (a note such as "invented data").
-    while True:
-        position = handle.tell()
-        line = handle.readline()
-        if not line:
-            break
-        if line.lstrip().startswith("#") or not line.strip():
-            skipped += 1
-            continue
-        handle.seek(position)
-        break
-    reader = csv.reader(handle, delimiter=delimiter, strict=True)
-    try:
-        header = next(reader, None)
-        if header is None:
-            raise InputFileError(name, "holds no header and no claims",
-                                 "the first row names the fields: title, metric, estimate, ...")
-        if len(header) == 1 and delimiter == "," and (";" in header[0] or "\t" in header[0]):
-            raise InputFileError(name, "has a single column whose name holds ';' or tabs",
-                                 "separate cells with commas (or name a tab-separated table .tsv)",
-                                 line=skipped + 1)
-        rows = []
-        number = 0
-        start = skipped + reader.line_num + 1
-        for cells in reader:
-            line = start
-            start = skipped + reader.line_num + 1
-            if not cells or all(not c.strip() for c in cells):
-                continue  # a blank line is not a claim
-            number += 1
-            if number > MAX_CLAIMS:
-                raise InputFileError(name, f"holds more than {MAX_CLAIMS:,} claims", "split the table",
-                                     line=line)
-            rows.append(Row(number, line, tuple(cells)))
-    except csv.Error as exc:
-        raise InputFileError(name, f"is not a well-formed table ({exc})",
-                             "fix the quoting near that line", line=skipped + reader.line_num) from None
+    # The same reader as the streamed path, on the whole text held in memory.
+    header, rows = _delimited_rows(io.StringIO(text, newline=""), name, delimiter)
+    rows = tuple(rows)
     if not rows:
         raise InputFileError(name, "holds a header but no claims", "give one claim per row below the header")
-    return SurveyTable(name, tuple(header), tuple(rows))
+    return SurveyTable(name, header, rows)
 
 
 def _read_parquet(path: Path) -> SurveyTable:
@@ -355,10 +320,9 @@ def _check_bytes(path: Path) -> None:
 
 
 def _delimited_rows(handle, name: str, delimiter: str):
-    """(header, iterator of Rows) of an open text handle, with the comment
-    lines, blank lines, line numbers and one-line errors of :func:`parse_delimited`."""
-    import itertools
-
+    """(header, iterator of Rows) of an open text handle: comment lines and
+    blank lines skipped, each row's line number in the file, and a one-line
+    error for a malformed table (raised as the rows are read)."""
     skipped = 0
     first = []
     while True:
