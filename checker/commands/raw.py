@@ -103,15 +103,35 @@ def run(args, stdout, stderr) -> int:
         written.append((args.markdown, render_raw_markdown(result, report)))
     write_all_atomic(written, inputs)
     if args.json:
-        from ..render.json import dumps
-        from ..render.raw_json import raw_result_to_dict
+        from ..render.raw_json import raw_result_json_pieces
 
-        stdout.write(dumps(raw_result_to_dict(result)))
+        # In pieces (a thousand circuits each) where the stream takes any text as it is; a
+        # stream of a narrower encoding spells the whole text at once (visible.for_stream).
+        pieces = raw_result_json_pieces(result)
+        if _takes_any_text(stdout):
+            for piece in pieces:
+                stdout.write(piece)
+        else:
+            stdout.write("".join(pieces))
     else:
         stdout.write(render_raw_text(result))
     if result.findings is not None and any(f.status == "fail" for f in result.findings):
         return 1
     return 0
+
+
+def _takes_any_text(stream) -> bool:
+    """True when writing to ``stream`` piece by piece gives the same bytes as one write:
+    no encoding, or a Unicode one (every escaped text encodes, so nothing is spelled in ASCII)."""
+    import codecs
+
+    encoding = getattr(stream, "encoding", None)
+    if not encoding:
+        return True
+    try:
+        return codecs.lookup(encoding).name in ("utf-8", "utf-16", "utf-32", "utf-8-sig")
+    except LookupError:
+        return True
 
 
 def _with_claim(result, claim, claim_file, replace):

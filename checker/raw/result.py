@@ -6,7 +6,7 @@ frozen dataclasses only.  Their JSON (``claimcheck raw DATA --json``) is
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import Any, Mapping
+from typing import Any, Mapping, Sequence
 
 from ..report import Finding
 from ..stats.fidelity_fit import FidelityFit
@@ -50,7 +50,7 @@ class RawResult:
     qubits: int
     rows: int
     combined: Mapping[str, MetricEstimate]
-    circuits: tuple  # of (label, {metric: MetricEstimate})
+    circuits: Sequence  # of (label, {metric: MetricEstimate}); raw.circuit_table.CircuitEstimates
     fits: tuple[FidelityFit, ...] = ()
     goodness_of_fit: tuple[FitTest, ...] = ()
     bootstrap: BootstrapSummary | None = None
