@@ -42,7 +42,10 @@ from checker.stats.tails import sigma_from_log_p  # noqa: E402
 
 COLUMNS = ["title", "source", "metric", "qubits", "estimate", "stat_error", "syst_error", "samples",
            "circuits", "sd", "threshold", "significance.sigma", "significance.p_value", "significance.sided",
-           "significance.systematics", "significance.required_sigma", "significance.global_sigma", "trials"]
+           "significance.systematics", "significance.required_sigma", "significance.global_sigma", "trials",
+           "combination.method", "interval.low", "interval.high", "interval.level"]
+PARTS = 5
+COLUMNS += [f"parts.{i}.{field}" for i in range(PARTS) for field in ("label", "estimate", "stat_error", "samples")]
 
 
 def _g(x: float, digits: int) -> str:
@@ -57,11 +60,16 @@ def _p_text(log_p: float) -> str:
 
 
 def invented_claims(n: int, seed: int = 20240611) -> list[dict]:
-    """``n`` invented claims with the mix a survey might hold: five metrics,
-    a fifth with a systematic (1 in 100 marginalized), some two-sided, some with
-    trials, and about one in ten with a slip (the other sidedness, a mistyped
-    sigma, an error below the sampling floor, an uncorrected global sigma)."""
+    """``n`` invented claims with the mix a survey might hold (the issue's
+    realistic table): five metrics, proportions and means among them, a fifth
+    with a systematic (1 in 100 marginalized), some two-sided, some with trials,
+    about one in ten with a slip (the other sidedness, a mistyped sigma, an
+    error below the sampling floor, an uncorrected global sigma); 10% with 5
+    parts (per-circuit or per-subset results whose samples-weighted mean is the
+    headline) and 10% with a 95% interval (Wilson for proportions, estimate
+    +- 1.96 standard errors for the others)."""
     rng = np.random.default_rng(seed)
+    extra_rng = np.random.default_rng(seed + 1)  # parts and intervals, leaving the rest of the mix as it was
     metrics = rng.choice(["linear-xeb", "heavy-output", "proportion", "log-xeb", "mean"], size=n,
                          p=[0.4, 0.15, 0.2, 0.1, 0.15])
     claims = []
@@ -133,8 +141,51 @@ def invented_claims(n: int, seed: int = 20240611) -> list[dict]:
         if levels and rng.random() < 0.7:
             level = int(rng.choice(levels)) if rng.random() > 0.02 else 5
             row["significance.required_sigma"] = str(level)
+        kind = extra_rng.random()
+        with_parts = 0.0 if metric == "heavy-output" else 0.1 / 0.85  # 10% of all: heavy output has no samples
+        if kind < with_parts:
+            _add_parts(row, metric, estimate, stat, extra_rng)
+        elif kind < with_parts + 0.1:
+            _add_interval(row, metric, estimate, stat)
         claims.append(row)
     return claims
+
+
+def _add_parts(row: dict, metric: str, estimate: float, stat: float, rng) -> None:
+    """Five parts of equal samples whose mean is the headline estimate (their
+    deviations sum to zero), each with sqrt(5) times the headline's error."""
+    deviations = rng.normal(size=PARTS)
+    deviations -= deviations.mean()
+    part_error = stat * math.sqrt(PARTS)
+    if metric == "proportion":
+        total = int(row["samples"])
+        sizes = [total // PARTS] * (PARTS - 1) + [total - (PARTS - 1) * (total // PARTS)]
+        sizes_text = [str(k) for k in sizes]
+        # Whole counts per part (a proportion is k/n), adding up to the headline's count.
+        counts = [min(max(round((estimate + part_error * deviations[i]) * sizes[i]), 0), sizes[i])
+                  for i in range(PARTS - 1)]
+        counts.append(min(max(round(estimate * total) - sum(counts), 0), sizes[-1]))
+        values = [k / size for k, size in zip(counts, sizes)]
+    else:
+        sizes_text = [_g(float(row["samples"]) / PARTS, 2)] * PARTS
+        values = [estimate + part_error * d for d in deviations]
+    for i in range(PARTS):
+        row[f"parts.{i}.label"] = f"subset {i + 1}"
+        row[f"parts.{i}.estimate"] = _g(values[i], 4)
+        row[f"parts.{i}.stat_error"] = _g(part_error, 2)
+        row[f"parts.{i}.samples"] = sizes_text[i]
+    row["combination.method"] = "samples"
+
+
+def _add_interval(row: dict, metric: str, estimate: float, stat: float) -> None:
+    if metric == "proportion" and 0 < estimate < 1:
+        n, z = int(row["samples"]), 1.959964
+        centre = (estimate + z * z / (2 * n)) / (1 + z * z / n)
+        half = z / (1 + z * z / n) * math.sqrt(estimate * (1 - estimate) / n + z * z / (4 * n * n))
+        low, high = centre - half, centre + half
+    else:
+        low, high = estimate - 1.96 * stat, estimate + 1.96 * stat
+    row.update({"interval.low": _g(low, 3), "interval.high": _g(high, 3), "interval.level": "0.95"})
 
 
 def write_table(claims: list[dict], path: Path) -> None:
@@ -153,7 +204,17 @@ def nested(row: dict) -> dict:
         for p in parts[:-1]:
             node = node.setdefault(p, {})
         node[parts[-1]] = value
-    return out
+    return _lists(out)
+
+
+def _lists(node):
+    """Mappings numbered 0, 1, ... (``parts.0.estimate``) as lists, as the table reader reads them."""
+    if not isinstance(node, dict):
+        return node
+    node = {k: _lists(v) for k, v in node.items()}
+    if node and all(k.isdigit() for k in node):
+        return [node[str(i)] for i in range(len(node))]
+    return node
 
 
 def main() -> int:
@@ -216,7 +277,7 @@ def main() -> int:
 
     at_100k = batch_seconds * 100_000 / args.claims
     ratio = scaled / batch_seconds
-    print(f"GOAL | batch of {args.claims:,} invented claims (five metrics; no parts or intervals), scaled to "
+    print(f"GOAL | batch of {args.claims:,} invented claims (five metrics; 10% with 5 parts, 10% with an interval), scaled to "
           f"100,000 | {at_100k:.0f} s wall; {ratio:,.0f}x one `check` per file | < 60 s wall and >= 300x | "
           + ("met" if at_100k < 60 and ratio >= 300 else
              f"missed: {at_100k:.0f} s wall (load average {load:.1f} on 2 shared cores)"))
