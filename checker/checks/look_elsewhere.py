@@ -140,14 +140,20 @@ def _implied_trials(claim: Claim) -> Iterator[Finding]:
     fewest = sidak_trials(lp[1], glp[0])
     most = sidak_trials(lp[0], glp[1]) if lp[0] > -math.inf else math.inf
     # the Bonferroni ratio at the printed central values (from the printed p when there is one)
-    lp_mid = (math.log(sig.p_value.value) if sig.p_value is not None and sig.p_value.value > 0
-              else log_p_from_sigma(sig.sigma.value, sided)) if origin != "recomputed significance" else lp[1]
+    if origin == "printed p_value":
+        lp_mid = math.log(sig.p_value.value) if sig.p_value.value > 0 else lp[1]
+    elif origin == "printed sigma":
+        lp_mid = log_p_from_sigma(sig.sigma.value, sided)
+    else:
+        lp_mid = (lp[0] + lp[1]) / 2 if lp[0] > -math.inf else lp[1]
     ratio = log_p_from_sigma(g.value, sided) - lp_mid
     bonferroni = math.exp(ratio) if ratio < 709.0 else math.inf
+    at_centre = sidak_trials(lp_mid, log_p_from_sigma(g.value, sided)) if lp_mid > -math.inf else math.inf
     details = {"method": "sidak", "sided": sided, "local_from": origin, "local_sigma_low": sigma[0],
                "local_sigma_high": sigma[1], "global_sigma_low": g.low, "global_sigma_high": g.high,
                "trials_low": fewest, "trials_high": most if math.isfinite(most) else None,
-               "bonferroni_trials": bonferroni if math.isfinite(bonferroni) else None, "tolerance": tol}
+               "bonferroni_trials": bonferroni if math.isfinite(bonferroni) else None,
+               "trials_central": at_centre if math.isfinite(at_centre) else None, "tolerance": tol}
     words = (f"{_trials_text(fewest)}" if math.isclose(fewest, most, rel_tol=1e-9) else
              f"at least {_trials_text(fewest)}" if math.isinf(most) else
              f"{_trials_text(fewest)} to {_trials_text(most)}")

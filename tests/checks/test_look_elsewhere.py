@@ -184,3 +184,9 @@ def test_a_tiny_local_p_gives_a_finite_count(check_claim):
 def test_a_global_alone_is_a_skip(check_claim):
     (f,) = check_claim(ONLY + "estimate: 1\nsignificance: {global_sigma: 2.3}\n", only=["look-elsewhere"]).findings
     assert f.status == "skip" and f.statement == "needs_inputs"
+
+
+def test_implied_trials_at_the_printed_values(check_claim):
+    # log1p(-norm.sf(2.3)) / log1p(-norm.sf(3.9)) = 224.2 (scipy.stats.norm.sf), the batch's column
+    (f,) = check_claim(ONLY + "significance: {sigma: 3.9, global_sigma: 2.3}\n", only=["look-elsewhere"]).findings
+    assert f"{f.details['trials_central']:.1f}" == "224.2"

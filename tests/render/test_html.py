@@ -276,3 +276,19 @@ def test_unusable_budget_details_leave_the_picture_out(monkeypatch, details):
     odd = Finding("warn", "odd budget", details=details, check="error-budget")
     page = render_html(Report(report.title, report.file, report.findings + (odd,)), claim)
     assert 'id="figure-budget"' not in page and "odd budget" in page
+
+
+def test_comparison_claim_gets_the_difference_picture():
+    # claims_examples/comparison_baseline_error_ignored.yaml (invented): both estimates with their
+    # binomial errors, sqrt(0.913 x 0.087 / 1200) = 0.00814 and sqrt(0.89 x 0.11 / 1200) = 0.00903,
+    # and the difference 0.023 with the errors in quadrature, 0.0122
+    from checker.checks import run_checks
+    from checker.claim import read_claim
+    from checker.render.html import render_html
+
+    path = Path(__file__).resolve().parents[2] / "claims_examples" / "comparison_baseline_error_ignored.yaml"
+    claim = read_claim(path)
+    page = render_html(run_checks(claim), claim)
+    assert 'data-figure="comparison"' in page and 'id="section-comparison"' in page
+    for shown in ("0.00814", "0.00903", "0.0122", "0.0081"):
+        assert f">{shown}<" in page
