@@ -25,8 +25,8 @@ demo: $(STAMP)
 	  status=$$?; [ $$status -le 1 ] || exit $$status; \
 	done
 	@echo; echo "== one claim in full"
-	@$(BIN)/claimcheck check claims_examples/log_xeb_sidedness.yaml --markdown .demo-notes.md --html .demo-report.html; \
-	  [ $$? -le 1 ] && echo "(referee notes in .demo-notes.md, HTML report in .demo-report.html)"
+	@$(BIN)/claimcheck check claims_examples/log_xeb_sidedness.yaml --markdown .demo-notes.md --plain-text .demo-notes.txt --html .demo-report.html; \
+	  [ $$? -le 1 ] && echo "(referee notes in .demo-notes.md, as plain text in .demo-notes.txt, HTML report in .demo-report.html)"
 	@echo; echo "== a table of claims (invented survey)"
 	@$(BIN)/claimcheck batch claims_examples/survey_table.csv; [ $$? -le 2 ]
 	@echo; echo "== simulated raw data with known truth F = 0.6 (12 qubits, 8 random circuits)"

@@ -70,3 +70,33 @@ def test_the_license_is_an_spdx_string():
     assert project["project"]["license"] == "MIT"
     assert any(re.fullmatch(r"setuptools>=(\d+)", r) and int(r.split(">=")[1]) >= 77
                for r in project["build-system"]["requires"])
+
+
+def test_the_readme_shell_ci_step_fails_on_a_flag_and_names_each_file(tmp_path):
+    import os
+    import subprocess
+    import sys
+
+    readme = (ROOT / "README.md").read_text(encoding="utf-8")
+    (block,) = re.findall(r"```sh\n(# CI step \(any shell\).*?)```", readme, flags=re.S)
+    step = "\n".join(line for line in block.splitlines() if "pip install" not in line)
+    # The installed claimcheck (this test's own environment) stands in for the pip line.
+    env = dict(os.environ, PATH=str(Path(sys.executable).parent) + os.pathsep + os.environ.get("PATH", ""))
+
+    def ci():
+        done = subprocess.run(["sh", "-c", step], cwd=tmp_path, env=env, capture_output=True, text=True,
+                              timeout=300)
+        return done.returncode, done.stdout
+
+    folder = manuscript(tmp_path, a=CLEAN)
+    (folder / "deeper").mkdir()
+    (folder / "deeper" / "b c.yml").write_text(CLEAN, encoding="utf-8")
+    status, out = ci()
+    assert status == 0
+    assert sorted(line.split(";")[0] for line in out.splitlines()) == [
+        "claims/a.yaml: consistent", "claims/deeper/b c.yml: consistent"]
+    (folder / "flawed.json").write_text('{"title": "Invented flawed claim", "metric": "proportion", '
+                                        '"estimate": 0.912, "stat_error": 0.002, "samples": 1000}',
+                                        encoding="utf-8")
+    status, out = ci()
+    assert status != 0 and "claims/flawed.json: inconsistent (error-floor)" in out

@@ -6,7 +6,6 @@ from __future__ import annotations
 import argparse
 import math
 import re
-from fractions import Fraction
 
 
 def finite(text: str) -> float:
@@ -25,6 +24,8 @@ def value(text: str) -> float:
     level; significances in sigma and counts use ``finite`` and ``whole``."""
     stripped = text.strip()
     if re.fullmatch(r"[+-]?[0-9]+/[1-9][0-9]*", stripped):  # an exact fraction, as in claim files: 2/3
+        from fractions import Fraction  # here, not at the top: `claimcheck --help` stays light
+
         return float(Fraction(stripped))
     if stripped.endswith("%"):
         try:
@@ -63,3 +64,27 @@ def level(text: str) -> float:
     if not 0.0 < x < 1.0:
         raise argparse.ArgumentTypeError(f"level must lie between 0 and 1, got {text}")
     return x
+
+
+class OldName(argparse.Action):
+    """An option's first name, kept working as a deprecated alias: it stores
+    its value where the new name does, stays out of ``--help``, and leaves in
+    ``namespace.old_names`` the one line the command prints on stderr."""
+
+    def __init__(self, option_strings, dest, new_name: str = "", why: str = "", **kwargs):
+        kwargs.setdefault("help", argparse.SUPPRESS)
+        super().__init__(option_strings, dest, **kwargs)
+        self.new_name, self.why = new_name, why
+
+    def __call__(self, parser, namespace, values, option_string=None):
+        setattr(namespace, self.dest, values)
+        notes = list(getattr(namespace, "old_names", None) or [])
+        notes.append(f"{parser.prog}: {option_string} is deprecated; use {self.new_name}"
+                     + (f" ({self.why})" if self.why else "") + "; the old name will be removed")
+        setattr(namespace, "old_names", notes)
+
+
+def print_old_names(args, stderr) -> None:
+    """The one line for each deprecated option name used (see :class:`OldName`)."""
+    for line in dict.fromkeys(getattr(args, "old_names", None) or []):
+        stderr.write(line + "\n")

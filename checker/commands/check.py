@@ -23,6 +23,9 @@ def add_parser(sub) -> None:
                    help="claim files (.yaml, .yml or .json); - reads one claim (YAML or JSON) from standard input")
     p.add_argument("--json", action="store_true", help="print the report as JSON")
     p.add_argument("--markdown", metavar="OUT", help="also write draft referee notes (Markdown) to OUT")
+    p.add_argument("--plain-text", metavar="OUT",
+                   help="also write the same referee notes as plain text (no markup, lines of at most "
+                        "78 columns, for a review form) to OUT")
     p.add_argument("--html", metavar="OUT", help="also write an HTML report with plots to OUT")
     p.add_argument("--only", metavar="IDS", type=_ids(REGISTRY),
                    help=f"comma-separated check ids to run (of: {', '.join(REGISTRY)})")
@@ -71,13 +74,15 @@ def run(args, stdout, stderr) -> int:
     inputs = [f for f in files if f != "-"]
     if files.count("-") > 1:
         raise OutputError("-", "is given more than once", "standard input holds one claim; give - once")
-    if len(files) > 1 and (args.markdown is not None or args.html is not None):
-        option = "--markdown" if args.markdown is not None else "--html"
+    targets = {"--markdown": args.markdown, "--plain-text": args.plain_text, "--html": args.html}
+    if len(files) > 1 and any(t is not None for t in targets.values()):
+        option = next(o for o, t in targets.items() if t is not None)
         raise OutputError(option, f"writes one claim's report, and {len(files)} files were given",
-                          "give one file with --markdown or --html, or use claimcheck batch for a set of claims")
+                          "give one file with --markdown, --plain-text or --html, or use claimcheck batch "
+                          "for a set of claims")
     # Every output is checked before the work, and every report is rendered
     # before any is written; then all are written or none.
-    check_targets({"--markdown": args.markdown, "--html": args.html}, inputs)
+    check_targets(targets, inputs)
     status = 0
     rendered = []
     for path in files:
@@ -96,6 +101,10 @@ def run(args, stdout, stderr) -> int:
             from ..render.markdown import render_markdown
 
             written.append((args.markdown, render_markdown(report, claim)))
+        if args.plain_text is not None:
+            from ..render.plain_text import render_plain_text
+
+            written.append((args.plain_text, render_plain_text(report, claim)))
         if args.html is not None:
             from ..render.html import render_html
 

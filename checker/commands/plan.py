@@ -33,7 +33,8 @@ def _not_negative(text: str) -> float:
 def _power(text: str) -> float:
     x = _value(text)
     if not 0.5 <= x < 1:
-        raise argparse.ArgumentTypeError(f"must lie in [0.5, 1), such as 0.8 or 0.9; got {text!r}")
+        hint = f" (for {text.strip()} percent, write {text.strip()}%)" if 50 <= x < 100 and "%" not in text else ""
+        raise argparse.ArgumentTypeError(f"must lie in [0.5, 1), such as 0.8, 0.9 or 80%; got {text!r}{hint}")
     return x
 
 
@@ -47,18 +48,22 @@ def add_parser(sub) -> None:
                        "systematic error adds in quadrature and caps the significance at (F - T)/S.")
     p.add_argument("--metric", required=True, choices=list(METRICS), help="the metric model")
     # Option names from the claim vocabulary (estimate, threshold, required_sigma, syst_error, samples,
-    # circuits, qubits, sd); the first names (--fidelity, --sigma, --syst) still work.
-    p.add_argument("--estimate", "--fidelity", dest="fidelity", required=True, type=_value, metavar="F",
+    # circuits, qubits, sd). The first names (--fidelity, --sigma, --syst), documented before the
+    # rename, still work as hidden aliases (README says so); --help shows only the claim's names.
+    p.add_argument("--estimate", dest="fidelity", type=_value, metavar="F",
                    help="the value you expect to measure: a fidelity, heavy-output probability, proportion "
                    "or mean (80%% is read as 0.8)")
     p.add_argument("--threshold", type=_value, metavar="T",
                    help="the value the claim must exceed (heavy-output: 2/3 unless given)")
-    p.add_argument("--required-sigma", "--sigma", dest="sigma", type=_positive, metavar="Z",
+    p.add_argument("--required-sigma", dest="sigma", type=_positive, metavar="Z",
                    help="the significance the claim must reach, its required_sigma (heavy-output: 2 unless given)")
     p.add_argument("--power", type=_power, default=0.8, metavar="P",
                    help="wanted probability of reaching Z (default 0.8; 80%% works too)")
-    p.add_argument("--syst-error", "--syst", dest="syst", type=_not_negative, default=0.0, metavar="S",
+    p.add_argument("--syst-error", dest="syst", type=_not_negative, default=0.0, metavar="S",
                    help="systematic error, added in quadrature (default 0)")
+    p.add_argument("--fidelity", dest="fidelity", type=_value, help=argparse.SUPPRESS)
+    p.add_argument("--sigma", dest="sigma", type=_positive, help=argparse.SUPPRESS)
+    p.add_argument("--syst", dest="syst", type=_not_negative, default=0.0, help=argparse.SUPPRESS)
     p.add_argument("--circuits", type=_count, metavar="K",
                    help="heavy-output: the circuits you have; also report what they can detect. "
                         "linear-xeb, log-xeb (with --qubits): the circuits the samples come from, whose "
@@ -107,6 +112,8 @@ def run(args, stdout, stderr) -> int:
                   + ("--baseline" if option in ("--paired", "--discordance") else
                      "--metric mean" if option == "--runs" else "--metric counts"), "leave it out")
     model = METRICS[args.metric]
+    if args.fidelity is None:  # not required=True in argparse: --fidelity, the hidden first name, also sets it
+        _fail("--estimate", "is needed: the value you expect to measure", "give --estimate F (80% reads as 0.8)")
     count_name = model.count_field
     other = "samples" if count_name == "circuits" else "circuits"
     xeb = args.metric in ("linear-xeb", "log-xeb")

@@ -5,6 +5,7 @@ hold the claim's printed numbers against it."""
 from __future__ import annotations
 
 
+from .arguments import OldName, print_old_names
 from .arguments import value as _value
 from .arguments import level as _level
 from .arguments import whole as _whole
@@ -32,9 +33,12 @@ def add_parser(sub) -> None:
     p.add_argument("--seed", type=_whole(0, "seed"), default=0, metavar="S",
                    help="seed of the subsample and the bootstrap (default 0)")
     p.add_argument("--level", type=_level, default=0.95, help="bootstrap interval level (default 0.95)")
-    # --threshold is the option's first name, kept working: the value is only where the fit is also tested.
-    p.add_argument("--also-test-at", "--threshold", dest="threshold", type=_value, metavar="F",
+    p.add_argument("--also-test-at", dest="threshold", type=_value, metavar="F",
                    help="also test the Porter-Thomas fit at this fidelity (default: the claim's threshold)")
+    # --threshold is the option's first name, kept working with one line on stderr: the value is
+    # only where the fit is also tested, never a threshold the data are held to.
+    p.add_argument("--threshold", dest="threshold", type=_value, metavar="F", action=OldName,
+                   new_name="--also-test-at", why="the value is only where the fit is also tested")
     p.add_argument("--fit-sample", type=_whole(2, "fit-sample", MAX_FIT_SAMPLE), default=DEFAULT_FIT_SAMPLE, metavar="K",
                    help=f"rows kept at random for the goodness-of-fit tests (default {DEFAULT_FIT_SAMPLE:,})")
     p.add_argument("--estimate-only", action="store_true",
@@ -52,6 +56,7 @@ def run(args, stdout, stderr) -> int:
     from ..raw.analysis import analyse
     from ..render.raw_text import render_raw_text
 
+    print_old_names(args, stderr)
     inputs = [args.data] + ([args.claim] if args.claim else [])
     # Refused before the (possibly long) pass over the data.
     check_targets({"--html": args.html, "--markdown": args.markdown}, inputs)

@@ -44,7 +44,7 @@ def add_parser(sub) -> None:
                    help="qubits (porter-thomas: up to 60; circuit: up to 20, about 16 is quick)")
     p.add_argument("--circuits", type=_whole(1, "circuits"), default=DEFAULT_CIRCUITS, metavar="K",
                    help=f"circuits (default {DEFAULT_CIRCUITS})")
-    p.add_argument("--samples", type=_whole(1, "samples"), default=DEFAULT_SAMPLES, metavar="S",
+    p.add_argument("--samples", type=_whole(1, "samples"), default=DEFAULT_SAMPLES, metavar="N",
                    help=f"samples per circuit (default {DEFAULT_SAMPLES:,})")
     p.add_argument("--fidelity", type=_fidelity, required=True, metavar="F", help="true fidelity F in [0, 1]")
     p.add_argument("--out", required=True, metavar="FILE", help="output file: .csv, .npy, .npz or .parquet")

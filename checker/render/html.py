@@ -22,11 +22,13 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Report
 from ..vocabulary import COMBINATION_NAMES
 from ..wording import num
-from .notes import Point, field_words, is_plain_number, one_line, points, printed_numbers, summary_tables
+from .notes import (Point, SharedPoint, field_words, is_plain_number, one_line, points, printed_numbers,
+                    raised_points, summary_tables)
 from .page import figure_html, html_page, status_mark, table_html, tile, verdict_panel
 
 _GROUPS = (("significance.", "Significance"), ("combination.", "Combination"),
-           ("extrapolation.", "Extrapolation"))
+           ("extrapolation.", "Extrapolation"), ("baseline.", "Baseline"), ("comparison.", "Comparison"),
+           ("counts_table.", "Counts table"), ("rates.", "Rates"))
 
 
 def _claim_section(claim: Claim) -> str:
@@ -72,7 +74,7 @@ def _text(rep: Reported | None) -> str:
     return rep.text if rep is not None else "–"
 
 
-def _point_card(n: int, p: Point) -> str:
+def _fact_pairs(p: Point) -> list[tuple[str, str]]:
     facts = []
     if p.printed is not None:
         name = field_words(p.printed_field)
@@ -81,16 +83,39 @@ def _point_card(n: int, p: Point) -> str:
     if p.implied is not None:
         shown = f"<code>{escape(p.implied)}</code>" if is_plain_number(p.implied) else escape(p.implied)
         facts.append(("The inputs imply", shown))
+    return facts
+
+
+def _dl(facts: list[tuple[str, str]]) -> str:
+    return "".join(f"<dt>{escape(k)}</dt><dd>{v}</dd>" for k, v in facts)
+
+
+def _point_card(n: int, p: Point) -> str:
+    facts = _fact_pairs(p)
     if p.reproduced is not None:
         facts.append(("Would follow", escape(p.reproduced)))
     elif p.unmatched:
         facts.append(("Would follow", "no convention or method we tried reproduces the print"))
     if p.question:
         facts.append(("Ask the authors", escape(p.question)))
-    dl = "".join(f"<dt>{escape(k)}</dt><dd>{v}</dd>" for k, v in facts)
     return (f'<article class="cc-point cc-{p.status}" id="point-{n}">'
             f'<h3><span class="cc-num">{n}</span>{escape(p.heading)} {status_mark(p.status)}</h3>'
-            f'<p class="cc-message">{escape(p.message)}</p><dl class="cc-facts">{dl}</dl></article>')
+            f'<p class="cc-message">{escape(p.message)}</p><dl class="cc-facts">{_dl(facts)}</dl></article>')
+
+
+def _shared_card(n: int, s: SharedPoint) -> str:
+    """One slip that explains several findings: one card, what it explains, one question."""
+    named = len({p.heading for p in s.members}) > 1
+    items = "".join(
+        f"<li>{status_mark(p.status)}<span>"
+        + (f'<span class="cc-what">{escape(p.heading)}</span>' if named else "")
+        + f'{escape(p.message)}<dl class="cc-facts">{_dl(_fact_pairs(p))}</dl></span></li>'
+        for p in s.members)
+    facts = [("Would follow", escape(s.reproduced)), ("Ask the authors", escape(s.question))]
+    return (f'<article class="cc-point cc-{s.status}" id="point-{n}">'
+            f'<h3><span class="cc-num">{n}</span>{escape(s.heading)} {status_mark(s.status)}</h3>'
+            f'<p class="cc-message">{escape(s.opening)}</p><ul class="cc-list">{items}</ul>'
+            f'<dl class="cc-facts">{_dl(facts)}</dl></article>')
 
 
 def _brief_list(items: Iterable[Point]) -> str:
@@ -302,9 +327,10 @@ def render_html(report: Report, claim: Claim) -> str:
         A self-contained HTML document; the same input always gives the same bytes.
     """
     sections: list[tuple[str, str, str]] = [("What the claim prints", _claim_section(claim), "claim")]
-    raised = list(points(report, claim, ("fail", "warn")))
+    raised = raised_points(report, claim)
     if raised:
-        cards = "\n".join(_point_card(n, p) for n, p in enumerate(raised, 1))
+        cards = "\n".join(_shared_card(n, p) if isinstance(p, SharedPoint) else _point_card(n, p)
+                          for n, p in enumerate(raised, 1))
         sections.append(("Points to raise with the authors", cards, "points"))
     for heading, ident, build in _FIGURES:
         try:

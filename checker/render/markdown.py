@@ -14,7 +14,9 @@ import re
 from ..claim.model import Claim
 from ..report import Report
 from ..vocabulary import CAUTION, STATUS_WORDS
-from .notes import Point, field_words, is_plain_number, one_line, points, summary_lines, summary_tables, title_of
+from ..wording import and_list
+from .notes import (Point, SharedPoint, brief_passes, field_words, is_plain_number, one_line, points,
+                    raised_points, summary_lines, summary_tables)
 
 # CommonMark lets a backslash escape any ASCII punctuation.  Escape what could
 # start markup mid-line; leave intraword underscores ("stat_error") alone, since
@@ -44,10 +46,9 @@ def _code(text: str) -> str:
     return f"{fence}{pad}{text}{pad}{fence}"
 
 
-def _point_block(n: int, p: Point) -> list[str]:
-    mark = STATUS_WORDS[p.status]
-    lines = [f"{n}. **{md(p.heading)}** ({mark}). {md(p.message)}", ""]
-    indent = "   "
+def _facts(p: Point, indent: str) -> list[str]:
+    """What was printed, what the inputs imply, what would reproduce it."""
+    lines = []
     if p.printed is not None:
         name = field_words(p.printed_field)
         what = f"{md(name)} " if name else ""
@@ -56,6 +57,14 @@ def _point_block(n: int, p: Point) -> list[str]:
     if p.implied is not None:
         shown = _code(p.implied) if is_plain_number(p.implied) else md(p.implied)
         lines.append(f"{indent}- The claim's inputs imply: {shown}.")
+    return lines
+
+
+def _point_block(n: int, p: Point) -> list[str]:
+    mark = STATUS_WORDS[p.status]
+    lines = [f"{n}. **{md(p.heading)}** ({mark}). {md(p.message)}", ""]
+    indent = "   "
+    lines += _facts(p, indent)
     if p.reproduced is not None:
         lines.append(f"{indent}- The print would follow {md(p.reproduced)}.")
     elif p.unmatched:
@@ -66,27 +75,32 @@ def _point_block(n: int, p: Point) -> list[str]:
     return lines
 
 
-def _brief_passes(agreed: list[Point]) -> list[str]:
-    """One line per check: its one message, or for a check that agreed on the
-    headline and on every part, which ones, without repeating the sentence."""
-    by_check: dict[str, list[Point]] = {}
-    for p in agreed:
-        by_check.setdefault(p.check, []).append(p)
-    lines = []
-    for group in by_check.values():
-        title = title_of(group[0].check)
-        if len(group) == 1:
-            lines.append(f"- {md(group[0].heading)}: {md(group[0].message)}")
-        elif all(p.part is not None for p in group[1:]) and sum(p.part is None for p in group) <= 1:
-            where = ["the headline"] * (group[0].part is None) + [f"part {p.part}" for p in group if p.part]
-            lines.append(f"- {md(title)}: agrees for {md(_join(where))}.")
-        else:
-            lines.append(f"- {md(title)}: " + " ".join(md(p.message) for p in group))
+def _shared_block(n: int, s: SharedPoint) -> list[str]:
+    """One slip that explains several findings: one point, what it explains, one question."""
+    mark = STATUS_WORDS[s.status]
+    lines = [f"{n}. **{md(s.heading)}** ({mark}). {md(s.opening)}", ""]
+    indent = "   "
+    named = len({p.heading for p in s.members}) > 1
+    for p in s.members:
+        label = f"{md(p.heading)}: " if named else ""
+        lines.append(f"{indent}- {label}{md(p.message)}")
+        lines += _facts(p, indent + "  ")
+    lines.append(f"{indent}- Suggested question: {md(s.question)}")
+    lines.append("")
     return lines
 
 
-def _join(items: list[str]) -> str:
-    return items[0] if len(items) == 1 else ", ".join(items[:-1]) + " and " + items[-1]
+def _brief_passes(agreed: list[Point]) -> list[str]:
+    """One line per check: its one message, or for a check that agreed on the
+    headline and on every part, which ones, without repeating the sentence."""
+    lines = []
+    for label, messages, where in brief_passes(agreed):
+        if where is not None:
+            lines.append(f"- {md(label)}: agrees for {md(and_list(list(where)))}.")
+        else:
+            lines.append(f"- {md(label)}: " + " ".join(md(m) for m in messages))
+    return lines
+
 
 
 def render_markdown(report: Report, claim: Claim) -> str:
@@ -114,11 +128,11 @@ def render_markdown(report: Report, claim: Claim) -> str:
     headline = f"headline estimate {_code(claim.estimate.text)}" if claim.estimate else "no headline estimate"
     out += [where + f"; metric {_code(claim.metric)}, {headline}.", ""]
 
-    raised = list(points(report, claim, ("fail", "warn")))
+    raised = raised_points(report, claim)
     if raised:
         out += ["## Points to raise", ""]
         for n, p in enumerate(raised, 1):
-            out += _point_block(n, p)
+            out += _shared_block(n, p) if isinstance(p, SharedPoint) else _point_block(n, p)
     for table in summary_tables(report):
         out += [f"## {md(table.caption)}", ""]
         out.append("| " + " | ".join(md(h) for h in table.headers) + " |")

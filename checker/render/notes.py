@@ -21,7 +21,7 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Report
 from ..visible import visible
 from ..vocabulary import convention_words
-from ..wording import num, num_range
+from ..wording import and_list, num, num_range
 
 _PLAIN_NUMBER = re.compile(r"-?[0-9.]+(e-?[0-9]+)?( to -?[0-9.]+(e-?[0-9]+)?)?")
 
@@ -62,6 +62,19 @@ def printed_numbers(claim: Claim) -> list[Reported]:
     for item in claim.error_budget:
         add(item.count, item.error, item.error_sd)
     add(claim.items)
+    add(claim.observed, claim.background, claim.background_error)
+    if claim.baseline is not None:
+        add(claim.baseline.estimate, claim.baseline.stat_error, claim.baseline.samples)
+    c = claim.comparison
+    if c is not None:
+        add(*(c.discordant or ()), c.difference, c.difference_error, c.sigma, c.p_value)
+    t = claim.counts_table
+    if t is not None:
+        add(t.true_positive, t.false_positive, t.false_negative, t.true_negative)
+    for rate in claim.rates:
+        add(rate.value)
+        if rate.interval is not None:
+            add(rate.interval.low, rate.interval.high, rate.interval.level)
     return found
 
 
@@ -199,6 +212,118 @@ def points(report: Report, claim: Claim | None, statuses: Iterable[str]) -> Iter
             yield make_point(f, claim)
 
 
+# --- one slip, one point ---------------------------------------------------------
+
+@dataclass(frozen=True)
+class SharedPoint:
+    """Several flags or notes that one slip explains: findings of the claim (of
+    the same part, or all about the headline) whose ``reproduced_by`` names the
+    same convention or method, such as a two-sided p printed under a one-sided
+    claim, which both the sigma-vs-p and the p-vs-inputs comparisons flag.
+
+    Attributes
+    ----------
+    status : str
+        ``fail`` when any member is a flag, else ``warn``.
+    heading : str
+        The members' headings, each once.
+    reproduced : str
+        The convention in words ("under the two-sided convention (both tails)").
+    question : str
+        One question for all the members.
+    opening : str
+        The sentence that opens the point ("One slip explains 2 findings: ...").
+    members : tuple of Point
+        The points it explains, in report order.
+    """
+
+    status: str
+    heading: str
+    reproduced: str
+    question: str
+    opening: str
+    members: tuple[Point, ...]
+
+
+def _slip_key(finding: Finding) -> tuple | None:
+    """What makes two raised findings one slip: the same convention (as data,
+    not words) on the same part; None for a finding no convention reproduces."""
+    if not finding.reproduced_by:
+        return None
+    convention = tuple(sorted((str(k), repr(v)) for k, v in finding.reproduced_by.items()))
+    part = finding.details.get("part")
+    return convention, None if part is None else str(part)
+
+
+def raised_points(report: Report, claim: Claim | None = None) -> list[Point | SharedPoint]:
+    """The flags and notes as the points a referee raises, in report order, one
+    point per slip: findings that one convention explains (:func:`_slip_key`)
+    become one :class:`SharedPoint` at the place of the first of them; every
+    other finding is its own :class:`Point`."""
+    raised = [f for f in report.findings if f.status in ("fail", "warn")]
+    groups: dict[tuple, list[Finding]] = {}
+    for f in raised:
+        key = _slip_key(f)
+        if key is not None:
+            groups.setdefault(key, []).append(f)
+    out: list[Point | SharedPoint] = []
+    for f in raised:
+        key = _slip_key(f)
+        group = groups.get(key) if key is not None else None
+        if group is None or len(group) == 1:
+            out.append(make_point(f, claim))
+        elif group[0] is f:
+            out.append(_shared_point(group, claim))
+    return out
+
+
+def _shared_point(group: list[Finding], claim: Claim | None) -> SharedPoint:
+    members = tuple(make_point(f, claim) for f in group)
+    reproduced = members[0].reproduced or ""
+    headings = list(dict.fromkeys(p.heading for p in members))
+    # One question about every printed number the slip explains, each named once.
+    named = []
+    for p in members:
+        if p.printed is None:
+            continue
+        name = field_words(p.printed_field)
+        named.append(f"the printed {name} {p.printed}" if name else f"the printed {p.printed}")
+    named = list(dict.fromkeys(named))
+    what = and_list(named) if named else "these numbers"
+    first = group[0]
+    spec = spec_for(first.check)
+    statement = spec.statement(first.statement) if spec is not None else None
+    question = statement.ask(what, reproduced) if statement is not None else None
+    if not question:
+        question = f"Was {what} obtained {reproduced}? Please say how it was computed."
+    status = "fail" if any(p.status == "fail" for p in members) else "warn"
+    prints = "the print" if len({(p.printed_field, p.printed) for p in members}) == 1 else "each print"
+    opening = f"One slip explains {len(members)} findings: {prints} would follow {reproduced}."
+    return SharedPoint(status=status, heading=and_list(headings), reproduced=reproduced,
+                       question=question, opening=opening, members=members)
+
+
+def brief_passes(agreed: list[Point]) -> list[tuple[str, tuple[str, ...], tuple[str, ...] | None]]:
+    """The passes briefly, one line per check: ``(label, messages, where)``.
+    ``where`` is set for a check that agreed on the headline and on every part
+    (the line then says where it agrees, without repeating the sentence);
+    otherwise the line is the label and the messages."""
+    by_check: dict[str, list[Point]] = {}
+    for p in agreed:
+        by_check.setdefault(p.check, []).append(p)
+    lines = []
+    for group in by_check.values():
+        title = title_of(group[0].check)
+        if len(group) == 1:
+            lines.append((group[0].heading, (group[0].message,), None))
+        elif all(p.part is not None for p in group[1:]) and sum(p.part is None for p in group) <= 1:
+            where = ("the headline",) * (group[0].part is None) + tuple(f"part {p.part}" for p in group if p.part)
+            lines.append((title, (), where))
+        else:
+            lines.append((title, tuple(p.message for p in group), None))
+    return lines
+
+
 def summary_lines(report: Report) -> tuple[str, str]:
     """The two-line summary both reports open with."""
     c = report.counts()
@@ -214,7 +339,7 @@ def summary_lines(report: Report) -> tuple[str, str]:
             parts.append(f"{c['warn']} {'deserves' if c['warn'] == 1 else 'deserve'} a word from the authors")
         parts.append(f"{c['pass']} {'agrees' if c['pass'] == 1 else 'agree'}")
         first = (f"claimcheck held this claim's printed numbers against what its own inputs imply, "
-                 f"in {checked} {'comparison' if checked == 1 else 'comparisons'}: {_join(parts)}"
+                 f"in {checked} {'comparison' if checked == 1 else 'comparisons'}: {and_list(parts)}"
                  + (f"; {c['skip']} more could not be made for want of inputs." if c["skip"] else "."))
     if c.get("info"):
         first += (f" {c['info']} {'value is' if c['info'] == 1 else 'values are'} recomputed for "
@@ -231,11 +356,6 @@ def summary_lines(report: Report) -> tuple[str, str]:
         second = "Verdict: incomplete. The claim would need the inputs listed under 'Not checked'."
     return first, second
 
-
-def _join(items: list[str]) -> str:
-    if len(items) <= 1:
-        return "".join(items)
-    return ", ".join(items[:-1]) + " and " + items[-1]
 
 
 def summary_tables(report: Report) -> list:

@@ -85,8 +85,12 @@ def test_qubits_enter_the_linear_xeb_variance():
     (["--metric", "proportion", "--fidelity", "1.2", "--threshold", "0.5", "--sigma", "3"], "lies outside [0, 1]"),
     (["--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3", "--power", "0.3"],
      "argument --power: must lie in [0.5, 1)"),
-    (["--metric", "proportion", "--fidelity", "nan", "--threshold", "0.5", "--sigma", "3"],
-     "argument --estimate/--fidelity: must be a finite number"),
+    (["--metric", "proportion", "--estimate", "nan", "--threshold", "0.5", "--required-sigma", "3"],
+     "argument --estimate: must be a finite number"),
+    (["--metric", "proportion", "--threshold", "0.5", "--required-sigma", "3"],
+     "--estimate: is needed: the value you expect to measure"),
+    (["--metric", "proportion", "--estimate", "0.6", "--threshold", "0.5", "--power", "90"],
+     "got '90' (for 90 percent, write 90%)"),
     (["--metric", "proportion", "--fidelity", "0.6", "--threshold", "0.5", "--sigma", "3", "--samples", "2.5"],
      "argument --samples: must be a whole number"),
 ])
@@ -111,3 +115,20 @@ def test_option_names_from_the_claim_vocabulary_percentages_and_old_names():
     assert shifted["threshold"] == -0.5 and shifted["reachable"]
     # A fraction reads exactly, as in claim files.
     assert plan_json("--metric", "heavy-output", "--estimate", "0.75", "--threshold", "2/3")["threshold"] == 2 / 3
+
+
+def test_help_names_the_options_after_the_claim_and_hides_the_first_names():
+    # issue 16: the target level is the claim's required_sigma, the expected value is not
+    # always a fidelity.  The first names were documented, so they still work (above), unlisted.
+    status, out, _ = claimcheck("plan", "--help")
+    assert status == 0
+    for name in ("--estimate F", "--required-sigma Z", "--syst-error S", "--power P"):
+        assert name in out
+    for old in ("--fidelity", "--sigma", "--syst "):
+        assert old not in out.replace("--required-sigma", "").replace("--syst-error", "")
+    # A percentage and a negative number after their options, through the command line; the
+    # textbook count N = sd^2 (z_Z + z_P)^2 / (F - T)^2 = (3 + 0.8416)^2 / 0.3^2 = 164.0 for
+    # sd = 1, Z = 3, power 80% (z = 0.8416, scipy.stats.norm.ppf(0.8)); Chow, Shao and Wang,
+    # "Sample Size Calculations in Clinical Research" (2008), one-sample mean.
+    assert plan_json("--metric", "mean", "--estimate", "-20%", "--threshold", "-0.5", "--sd", "1",
+                     "--required-sigma", "3", "--power", "80%")["samples"] == 164

@@ -143,9 +143,16 @@ def test_also_test_at_names_what_the_value_does_and_the_old_name_still_works(dat
     _, path = data
     results = []
     for option, value in (("--also-test-at", "0.3"), ("--threshold", "0.3"), ("--also-test-at", "30%")):
-        status, out, _ = _run("raw", path, "--metric", "linear-xeb", "--qubits", "10", "--bootstrap", "0",
+        status, out, err = _run("raw", path, "--metric", "linear-xeb", "--qubits", "10", "--bootstrap", "0",
                               option, value, "--json")
         fits = {g["at"]: g["fidelity"] for g in json.loads(out)["goodness_of_fit"]}
         assert status == 0 and fits["threshold"] == pytest.approx(0.3)
+        # The old name is a deprecated alias: one line on stderr, and none for the new name.
+        if option == "--threshold":
+            assert err.count("\n") == 1 and "--threshold is deprecated; use --also-test-at" in err
+        else:
+            assert err == ""
         results.append(out)
     assert results[0] == results[1] == results[2]
+    status, out, _ = _run("raw", "--help")
+    assert "--also-test-at F" in out and "--threshold" not in out

@@ -79,3 +79,13 @@ def test_circuits_and_samples_have_defaults(tmp_path):
     status, out, _ = _run("simulate", "--qubits", "6", "--fidelity", "40%", "--out", str(target))
     assert status == 0 and "wrote 10,000 simulated samples (10 circuits x 1000" in out
     assert "fidelity 0.4," in out
+
+
+def test_the_defaults_are_in_the_help_and_the_readme():
+    from pathlib import Path
+
+    status, out, _ = _run("simulate", "--help")
+    assert status == 0 and "--circuits K" in out and "(default 10)" in out
+    assert "--samples N" in out and "(default 1,000)" in out
+    readme = " ".join((Path(__file__).resolve().parents[2] / "README.md").read_text(encoding="utf-8").split())
+    assert "`--circuits` defaults to 10 and `--samples` to 1,000 per circuit" in readme

@@ -67,6 +67,32 @@ def test_every_printed_number_shown(four_parts):
         assert rep.text in text, rep.path
 
 
+NEW_KINDS = ["comparison_paired_clean.yaml", "comparison_paired_no_discordant.yaml",
+             "counts_background_error_ignored.yaml", "screening_rates_clean.yaml",
+             "significances_only_local_global.yaml", "mean_sd_printed_as_error.yaml"]
+
+
+@pytest.mark.parametrize("name", NEW_KINDS)
+def test_every_printed_number_of_each_kind_shown(name):
+    """The claim section lists the baseline, comparison, counting, table and rate
+    fields as printed, each under its own path."""
+    from checker.claim import read_claim
+    from checker.checks import run_checks
+    from checker.render.notes import printed_numbers
+
+    claim = read_claim(Path(__file__).parents[2] / "claims_examples" / name)
+    numbers = printed_numbers(claim)
+    kind_fields = [r for r in numbers if r.path.startswith(("baseline.", "comparison.", "observed", "background",
+                                                            "counts_table.", "rates."))]
+    if name != "mean_sd_printed_as_error.yaml" and name != "significances_only_local_global.yaml":
+        assert kind_fields, name
+    page = render_html(run_checks(claim), claim)
+    claim_part = page[page.index('id="claim"'):page.index('id="points"') if 'id="points"' in page else None]
+    text = " ".join(_parse(claim_part).text)
+    for rep in numbers:
+        assert rep.text in text, rep.path
+
+
 def test_self_contained_and_scriptless(four_parts):
     page, _, _ = four_parts
     tags = _parse(page).tags

@@ -181,3 +181,45 @@ def test_the_extrapolation_point_names_syst_error_and_quotes_its_own_number(monk
     text = render_markdown(report, claim)
     assert "- Printed: systematic error `0.30e-3` (field `syst_error`)." in text
     assert "- The claim's inputs imply: `0.200e-3`." in text
+
+
+# Invented claim (issue 16): sided: one, but the printed p is the two-sided one. The
+# inputs give z = (0.004200 - 0.001000)/0.000900 = 3.556, one-sided p = 1.88e-4 and
+# two-sided 3.77e-4 (scipy.stats.norm.sf); the printed 3.56 sigma is two-sided p = 3.71e-4
+# (scipy.stats.norm.sf(3.56) * 2). So one slip makes two flags: sigma-vs-p and p-vs-inputs.
+ONE_SLIP = ("# Invented scenario: made-up lab and numbers.\n"
+            "title: Invented two-flag sidedness slip\nmetric: log-xeb\nqubits: 40\n"
+            "estimate: 0.004200\nstat_error: 0.000900\nthreshold: 0.001000\n"
+            "significance: {sigma: 3.56, p_value: 3.73e-4, sided: one}\n")
+
+
+def test_one_slip_is_one_point_listing_what_it_explains(tmp_path):
+    from scipy.stats import norm
+
+    assert abs(2 * norm.sf(3.56) - 3.73e-4) < 0.05e-4 and abs(norm.sf(3.556) - 1.88e-4) < 0.01e-4
+    claim = tmp_path / "slip.yaml"
+    claim.write_text(ONE_SLIP, encoding="utf-8")
+    notes, page = tmp_path / "notes.md", tmp_path / "report.html"
+    stdout = io.StringIO()
+    status = run(["check", str(claim), "--markdown", str(notes), "--html", str(page), "--json"],
+                 stdout, io.StringIO())
+    assert status == 1
+    import json
+
+    flags = [f for f in json.loads(stdout.getvalue())["findings"] if f["status"] == "fail"]
+    assert [f["statement"] for f in flags] == ["sigma_vs_p", "p_vs_inputs"]
+    assert all(f["reproduced_by"] == {"sided": "two"} for f in flags)
+    text = notes.read_text(encoding="utf-8")
+    points = text.split("## Points to raise\n\n")[1].split("\n## ")[0]
+    assert re.findall(r"^(\d+)\. ", points, flags=re.M) == ["1"]
+    assert points.count("Suggested question: ") == 1
+    assert ("1. **Significance** (flag). One slip explains 2 findings: the print would follow "
+            "under the two-sided convention (both tails).") in points
+    # Each finding it explains is listed with its own numbers.
+    assert "   - Printed 3.56 sigma is p = 0.00018 to 0.00019 one-sided" in points
+    assert "   - Printed p = 3.73e-4, but estimate, threshold and errors give p = 0.00019" in points
+    assert points.count("     - Printed: p-value `3.73e-4` (field `significance.p_value`).") == 2
+    # The HTML report's points: one card, the same question once.
+    html = page.read_text(encoding="utf-8")
+    assert len(re.findall(r'<article class="cc-point', html)) == 1
+    assert html.count("Ask the authors") == 1 and "One slip explains 2 findings" in html
