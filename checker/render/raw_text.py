@@ -116,8 +116,10 @@ def render_drift_text(result, file: str, origin: str | None = None) -> str:
     r = result
     unit = f" hours since the first point ({origin})" if origin else ""
     per = "per hour" if origin else "per unit time"
-    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)}{unit} "
-             f"({r.window_points} points)", ""]
+    # The count of the series and of its window are said once each.
+    inside = "all" if r.window_points == r.points else f"{r.window_points} of them"
+    lines = [f"Drift of {file}: {r.points} points, {inside} in the window {_n(r.window_start)} to "
+             f"{_n(r.window_end)}{unit}", ""]
     lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} {per}; {r.level:.0%} interval "
                  f"{_n(r.slope_low)} to {_n(r.slope_high)} ({p_equals(r.slope_p_value)})")
     lines.append(f"  level at window  {_n(r.trend_level)} +- {_n(r.trend_level_error, 3)} (intercept at the window "

@@ -100,11 +100,11 @@ class BatchResult:
 
     @property
     def exit_status(self) -> int:
-        """1 when a claim failed a check; otherwise 2 when a row could not be
-        used; otherwise 0."""
-        if self.summary["verdicts"]["inconsistent"]:
-            return 1
-        return 2 if self.summary["unusable"] else 0
+        """The worst, as ``check`` ranks it: 2 when a row could not be used;
+        otherwise 1 when a claim failed a check; otherwise 0."""
+        if self.summary["unusable"]:
+            return 2
+        return 1 if self.summary["verdicts"]["inconsistent"] else 0
 
 
 def _value(rep) -> float:
