@@ -214,6 +214,13 @@ def main() -> int:
     print(f"ratio (per-file scaled / batch), wall: {scaled / batch_seconds:,.0f}x; CPU: "
           f"{per_file_cpu * args.claims / batch_cpu:,.0f}x")
 
+    at_100k = batch_seconds * 100_000 / args.claims
+    ratio = scaled / batch_seconds
+    print(f"GOAL | batch of {args.claims:,} invented claims (five metrics; no parts or intervals), scaled to "
+          f"100,000 | {at_100k:.0f} s wall; {ratio:,.0f}x one `check` per file | < 60 s wall and >= 300x | "
+          + ("met" if at_100k < 60 and ratio >= 300 else
+             f"missed: {at_100k:.0f} s wall (load average {load:.1f} on 2 shared cores)"))
+
     if args.profile:
         import cProfile
         import pstats

@@ -54,6 +54,13 @@ def main() -> int:
     print(f"one Wilson interval: scipy.special {ours * 1e6:.1f} us, statsmodels {theirs * 1e6:.1f} us "
           f"(ratio {theirs / ours:.0f}x)")
     print(f"goal <= 0.3 ms for a claim with an interval: {'met' if t_with <= 3e-4 else 'missed'}")
+    print(f"GOAL | a claim with an interval, in process (ratio: the same claim without it) | {t_with * 1e3:.2f} ms "
+          f"({t_with / t_without:.2f}x) | <= 0.3 ms | "
+          + ("met" if t_with <= 3e-4 else
+             f"missed by {(t_with - 3e-4) * 1e3:.2f} ms: the claim without its interval already takes "
+             f"{t_without * 1e3:.2f} ms (the other checks); the five intervals come from scipy.special, "
+             f"{theirs / ours:.0f}x faster than statsmodels, and the interval check's search over counts "
+             f"and levels is the remaining {(t_with - t_without) * 1e3:.2f} ms"))
     return 0
 
 

@@ -121,6 +121,10 @@ def main() -> int:
         est = min(times["estimate-only"])
         print(f"baseline pandas.read_csv: {base:.2f} s (best of {args.rounds})")
         print(f"raw --estimate-only (analyse): {est:.2f} s, ratio {est / base:.2f}x (goal <= 1.5x)")
+        print(f"GOAL | raw estimate-only, CSV of {args.rows:,} rows with a circuit column, against "
+              f"pandas.read_csv alone | {est / base:.2f}x | <= 1.5x | "
+              + ("met" if est / base <= 1.5 else f"missed by {est / base - 1.5:.2f}x (not profiled here; below 1e7 rows "
+                 "the fixed costs weigh more, and the 1e7-row runs of 2026-12-02 gave 1.23x to 1.64x)"))
         print(f"raw full (fits, tests, 10,000-replicate cluster bootstrap): {full[0]:.2f} s, "
               f"ratio {full[0] / base:.2f}x")
         code = "from benchmarks.raw_csv_circuits import ours, baseline\n"

@@ -137,6 +137,11 @@ def main() -> None:
               f"peak RSS {mem_est['maxrss_kb'] / 1024:.0f} MB, traced arrays {mem_est['traced_peak'] / 2**20:.1f} MB")
         print(f"ours, full analysis: {summary('full', t_full['full'], t_full['bare'])}; "
               f"peak RSS {mem_full['maxrss_kb'] / 1024:.0f} MB, traced arrays {mem_full['traced_peak'] / 2**20:.1f} MB")
+        r = float(np.median(times["bare"])) / float(np.median(times["estimate"]))
+        peak = mem_est["maxrss_kb"] / 1024
+        print(f"GOAL | raw estimate-only, {rows:,}-row NPY (in process, imports paid; peak of a fresh process) | "
+              f"{r:.2f}x the bare mean's throughput, {peak:.0f} MB | >= 0.6x, <= 256 MB | "
+              + ("met" if r >= 0.6 and peak <= 256 else f"missed: {r:.2f}x, {peak:.0f} MB"))
     finally:
         try:
             os.unlink(path)

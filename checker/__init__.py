@@ -10,10 +10,22 @@ The public face for notebooks::
 
 from __future__ import annotations
 
-from typing import Any, Mapping
+from typing import TYPE_CHECKING, Any, Mapping
 
 from .errors import ClaimcheckError, ClaimSchemaError, DataError, InputFileError
-from .report import Finding, Report
+
+if TYPE_CHECKING:
+    from .report import Finding, Report
+
+
+def __getattr__(name: str):
+    # Finding and Report on first use (PEP 562): importing checker.report pulls in dataclasses
+    # and inspect, a third of `claimcheck --help`'s own start-up (benchmarks/startup.py).
+    if name in ("Finding", "Report"):
+        from . import report
+
+        return getattr(report, name)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
 
 # The one place the version is written: pyproject.toml reads it from here.
 __version__ = "0.1.0"

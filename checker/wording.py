@@ -158,6 +158,13 @@ def like_range(low: float | None, high: float | None, printed) -> str:
     return a if a == b else f"{a} to {b}"
 
 
+def and_list(items: list[str]) -> str:
+    """'a', 'a and b', 'a, b and c' ('' for none)."""
+    if len(items) <= 1:
+        return "".join(items)
+    return ", ".join(items[:-1]) + " and " + items[-1]
+
+
 def plural(n: int, one: str, many: str | None = None) -> str:
     """``1 row``, ``12,000 rows``: a count with its noun."""
     return f"{n:,} {one if n == 1 else (many or one + 's')}"

@@ -330,9 +330,10 @@ def test_a_value_with_nothing_printed_to_compare_is_for_information(write_claim,
     (sig,) = [f for f in report["findings"] if f["check"] == "significance"]
     assert status == 0 and sig["status"] == "info" and sig["reported"] is None
     assert 10.4 < sig["recomputed"] < 11.0
-    assert report["counts"]["info"] == 1 and report["counts"]["pass"] == 1  # bounds alone agrees
+    # bounds alone agrees; error-floor says how many samples the printed error implies (no samples given)
+    assert report["counts"]["info"] == 2 and report["counts"]["pass"] == 1
     status, out, _ = cli("check", path, "--markdown", tmp_path / "n.md", "--html", tmp_path / "n.html")
-    assert " info significance" in out and "1 agree, 1 for information" in out
+    assert " info significance" in out and "1 agree, 2 for information" in out
     notes = (tmp_path / "n.md").read_text()
     agrees, informed = notes.split("## What agrees")[1].split("## For information")
     assert "No significance is printed" not in agrees and "No significance is printed" in informed
@@ -342,7 +343,7 @@ def test_a_value_with_nothing_printed_to_compare_is_for_information(write_claim,
                      "Invented,linear-xeb,30,2.24e-3,0.21e-3,0\n")
     status, out, _ = cli("batch", table, "--out", tmp_path / "t.json")
     (row,) = strict_json((tmp_path / "t.json").read_text())["claims"]
-    assert status == 0 and (row["agree"], row["for_information"]) == (1, 1)
+    assert status == 0 and (row["agree"], row["for_information"]) == (1, 2)
     assert "wrote 1 row to" in out
 
 

@@ -88,3 +88,45 @@ def test_the_reader_resolves_relative_imports():
     found = imports(PACKAGE / "checks" / "significance.py")
     assert any(module == "checker.stats.tails" for module, _, _ in found)
     assert any(module == "checker.checks.spec" for module, _, _ in found)
+
+
+# --- start-up: help and schema import none of the numerical stack (issue 13) ---
+
+LIGHT_COMMANDS = (["--help"], ["schema"], [])
+HEAVY_MODULES = ("numpy", "scipy", "pandas", "yaml", "jsonschema", "checker.checks", "checker.claim",
+                 "checker.stats", "checker.report")
+
+
+@pytest.mark.parametrize("argv", LIGHT_COMMANDS)
+def test_help_and_schema_import_no_numerical_module(argv):
+    import subprocess
+    import sys
+
+    probe = ("import io, sys; from checker.cli import run; out = io.StringIO(); "
+             f"status = run({argv!r}, out, io.StringIO()); "
+             f"print(status, len(out.getvalue()) > 100, [m for m in {HEAVY_MODULES!r} if m in sys.modules])")
+    done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, check=True,
+                          cwd=PACKAGE.parent)
+    assert done.stdout.split(None, 2) == ["0", "True", "[]\n"], done.stdout + done.stderr
+
+
+def test_schema_command_prints_the_validators_schema():
+    import io
+
+    from checker.claim.validate import SCHEMA_PATH
+    from checker.cli import run
+    from checker.commands.schema import SCHEMA_FILE
+
+    assert SCHEMA_FILE == SCHEMA_PATH
+    out = io.StringIO()
+    assert run(["schema"], out, io.StringIO()) == 0
+    assert out.getvalue() == SCHEMA_PATH.read_text(encoding="utf-8")
+
+
+def test_lazy_names_of_the_package():
+    import checker
+    from checker.report import Finding, Report
+
+    assert checker.Report is Report and checker.Finding is Finding
+    with pytest.raises(AttributeError):
+        checker.no_such_name  # noqa: B018

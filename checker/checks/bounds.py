@@ -12,7 +12,7 @@ from typing import Iterator
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown
 from ..wording import num
-from .common import is_probability, metric_of, printed_zero
+from .common import fewer_samples_than_circuits, is_probability, metric_of, printed_zero
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 
@@ -71,6 +71,19 @@ def _positive(rep: Reported | None, what: str, allow_zero: bool = False, details
                       details={**(details or {}), "field": rep.path}, **_on(rep, "error_sign"))
 
 
+def _samples_and_circuits(samples: Reported | None, circuits: Reported | None, what: str,
+                          details: dict) -> Iterator[Finding]:
+    if not fewer_samples_than_circuits(samples, circuits):
+        return
+    per = samples.value * circuits.value
+    yield Finding("fail", f"{what} {samples.text} samples but {circuits.text} circuits, and every "
+                  f"circuit needs at least one sample: is {samples.text} the samples per circuit "
+                  f"({num(per, 2)} in all), or are the two counts swapped?",
+                  details={**details, "field": samples.path, "circuits": circuits.value,
+                           "samples_if_per_circuit": per},
+                  **_on(samples, "samples_below_circuits"))
+
+
 def check(claim: Claim) -> Iterator[Finding]:
     checked = 0
     found: list[Finding] = []
@@ -84,6 +97,8 @@ def check(claim: Claim) -> Iterator[Finding]:
     if claim.estimate is not None:
         collect(_estimate_findings(claim, claim.estimate, claim.stat_error, "The estimate", {}))
     collect(_positive(claim.stat_error, "The statistical error"))
+    # A relation between two counts, not a value of its own: not counted among the values checked.
+    found.extend(_samples_and_circuits(claim.samples, claim.circuits, "The claim gives", {}))
     collect(_positive(claim.syst_error, "The systematic error", allow_zero=True))
     if claim.sd is not None:
         collect(_positive(claim.sd, "The per-sample standard deviation"))
@@ -127,6 +142,7 @@ def check(claim: Claim) -> Iterator[Finding]:
         collect(_estimate_findings(claim, part.estimate, part.stat_error,
                                    f"Part {part.label}: the estimate", details))
         collect(_positive(part.stat_error, f"Part {part.label}: the statistical error", details=details))
+        found.extend(_samples_and_circuits(part.samples, part.circuits, f"Part {part.label} gives", details))
     for item in claim.error_budget:
         checked += 1
         if not 0.0 <= item.error.value <= 1.0:
@@ -169,6 +185,9 @@ SPEC = CheckSpec(
         "outside_interval": Statement(question=("Could the authors confirm {what}? As printed it lies "
                                                 "outside its own interval.")),
         "rate_range": _RANGE,
+        "samples_below_circuits": Statement(question=(
+            "Could the authors confirm {what}? As printed there are fewer samples than circuits, so "
+            "some circuits were never sampled; is it the number of samples per circuit?")),
         "factor_sign": _RANGE,
         "all_in_range": ABOUT_THE_CLAIM,
     },

@@ -65,6 +65,13 @@ def flagged_error(rep: Reported | None) -> bool:
     return rep is not None and not rep.value > 0
 
 
+def fewer_samples_than_circuits(samples: Reported | None, circuits: Reported | None) -> bool:
+    """Every circuit needs at least one sample: samples below circuits (over the
+    whole printed interval of both) cannot be a total count of samples; ``bounds``
+    flags it and the checks that would use the two counts skip them."""
+    return samples is not None and circuits is not None and samples.high < circuits.low
+
+
 def skipped_words(rep: Reported) -> str:
     """"the printed stat_error -0.009 is not used: the physical-range check flags it"."""
     return f"the printed {rep.path} {rep.text} is not used: the physical-range check flags it"

@@ -19,7 +19,7 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats.ranges import sampling_error_range, scalar_range
 from ..wording import num, span_text
-from .common import flagged_error, skipped_words, above, below, count_for_error, metric_of, model_inputs
+from .common import fewer_samples_than_circuits, flagged_error, skipped_words, above, below, count_for_error, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 WARN_RATIO = 3.0
@@ -118,6 +118,59 @@ def _circuits_for(variance: float, between: float, scale: float, error: float, s
     return k if math.isfinite(k) else None
 
 
+# The per-sample variance each model uses, in words, for the implied count's sentence
+# (the formulas of checker.stats.porter_thomas and checker.stats.binomial).
+VARIANCE_WORDS = {
+    "linear-xeb": "per-sample variance 1 + 2F - F^2 under the Porter-Thomas mixture",
+    "log-xeb": "per-sample variance pi^2/6 - F^2 under the Porter-Thomas mixture",
+    "heavy-output": "variance h(1 - h) per circuit",
+    "proportion": "binomial variance p(1 - p) per item",
+    "mean": "the printed per-sample sd",
+}
+
+
+def _implied_count(claim: Claim, estimate: Reported, error: Reported, factor: tuple[float, float],
+                   what: str, details: dict, circuits: Reported | None) -> Finding | None:
+    """No count printed: the count the printed error implies under the metric model, for the
+    reader to hold against what the paper says it took (N = v / (error / factor)^2, or with K
+    circuits the N of sqrt(v/N + B (1/K - 1/N)) = error / factor).  None when the model
+    cannot say (an input it needs is missing, or the error is not above zero)."""
+    model = metric_of(claim)
+    if any(getattr(claim, f) is None for f in model.needs()) or not error.value > 0:
+        return None
+    count_name = model.count_field
+    k = circuits.value if (circuits is not None and count_name == "samples") else None
+    inputs = model_inputs(claim, circuits=k)
+    mid = estimate.value / factor[0]
+    v_mid = model.variance(mid, inputs)
+    b_mid = model.circuit_variance(mid, inputs) if k else 0.0
+    central = _count_for(v_mid, factor[0], error.value, b_mid, k)
+    if central is None:
+        return None
+    if k is None:
+        # N = v / (e / f)^2 rises with v and f and falls with e: its range over the printed box
+        # from the variance's own extremes over the estimate's interval.
+        v_low, v_high = model.variance_range(estimate.low / factor[1], estimate.high / factor[0], inputs) \
+            if factor[0] > 0 else (v_mid, v_mid)
+        low = v_low * (factor[0] / error.high) ** 2 if error.high > 0 else math.nan
+        high = v_high * (factor[1] / error.low) ** 2 if error.low > 0 else math.inf
+    else:
+        low = high = central
+    if not (math.isfinite(low) and math.isfinite(high)):
+        low = high = central
+    with_k = f" from {circuits.text} circuits" if k else ""
+    spread = "" if num(low, 2) == num(high, 2) else f" ({span_text((low, high), 3)} within the printed precision)"
+    return Finding("info", f"{what}: no {count_name} are printed; the printed stat_error {error.text} on "
+                   f"{estimate.text} implies about {num(central, 2)} {count_name}{with_k}{spread} under the "
+                   f"{model.name} model ({VARIANCE_WORDS.get(model.name, 'its per-sample variance')}): "
+                   f"compare with what the paper says it took.",
+                   recomputed=central, details={**details, "count_field": count_name, "implied": central,
+                                                "implied_low": low, "implied_high": high,
+                                                "missing": [count_name]},
+                   field=error.path, statement="implied_count", printed=Shown.of(error),
+                   recomputed_range=Span(low, high))
+
+
 def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported | None,
          factor: tuple[float, float], what: str, details: dict,
          samples: Reported | None = None, circuits: Reported | None = None) -> Iterator[Finding]:
@@ -130,6 +183,17 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
         yield Finding("skip", f"{what}: no floor compared; {skipped_words(error)}.",
                       details={**details, "skipped_input": error.path}, statement="needs_inputs")
         return
+    total = samples if samples is not None else n
+    if fewer_samples_than_circuits(total, circuits):
+        yield Finding("skip", f"{what}: no floor compared; {total.text} samples from {circuits.text} circuits "
+                      "are not used: the physical-range check flags them.",
+                      details={**details, "skipped_input": total.path}, statement="needs_inputs")
+        return
+    if error is not None and n is None:
+        implied = _implied_count(claim, estimate, error, factor, what, details, circuits)
+        if implied is not None:
+            yield implied
+            return
     if error is None or n is None:
         missing = (["stat_error"] if error is None else []) + ([model.count_field] if n is None else [])
         yield Finding("skip", f"{what}: no floor to compare with; needs {' and '.join(missing)}.",
@@ -281,6 +345,7 @@ SPEC = CheckSpec(
         "within_floor": Statement(),
         "per_circuit_convention": Statement(),
         "needs_inputs": ABOUT_THE_CLAIM,
+        "implied_count": Statement(),
         "no_model_error": ABOUT_THE_CLAIM,
     },
 )

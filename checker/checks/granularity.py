@@ -49,6 +49,10 @@ def _nearest_possible(value: Reported, n: int, items: int, proportion: bool) -> 
 def _one(claim: Claim, value: Reported, n: Reported | None, what: str, details: dict,
          proportion: bool, items: int) -> Finding:
     noun = "items" if proportion else "whole-number responses"
+    if proportion and (value.high < 0.0 or value.low > 1.0):
+        # bounds flags it (a percentage without its sign, most often): no count to look for.
+        return Finding("skip", f"{what}: {value.text} is not tested: the physical-range check flags it.",
+                       details={**details, "skipped_input": value.path}, statement="needs_inputs")
     if n is None:
         return Finding("skip", f"{what}: the granularity test needs the number of {noun} (samples).",
                        details={**details, "missing": ["samples"]}, statement="needs_inputs")

@@ -20,7 +20,7 @@ from __future__ import annotations
 
 import itertools
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Iterator
 
 from ..claim.model import Claim
@@ -32,7 +32,7 @@ from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
 from ..vocabulary import convention_text
 from ..wording import num, p_range_text, span_text
-from .common import flagged_error, skipped_words, above, is_probability, printed_zero, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
+from .common import fewer_samples_than_circuits, flagged_error, skipped_words, above, is_probability, printed_zero, count_for_error, finite_or_none, log_bounds, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 LN10 = math.log(10.0)
@@ -108,7 +108,8 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         if stat is None and per_circuit(claim):
             return _recompute_per_circuit(claim, convention, syst)
         if stat is None:
-            return None
+            floor = _floor_function(claim)
+            return None if floor is None else _recompute_at_floor(claim, convention, syst, *floor)
     if not (math.isfinite(stat[0]) and stat[0] > 0):
         return None
 
@@ -136,6 +137,70 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         if sided == "two":
             sigma = tuple(sorted(abs(x) for x in sigma)) if sigma[0] * sigma[1] > 0 else (0.0, max(map(abs, sigma)))
     return Recomputed(convention, sigma, log_p)
+
+
+def _floor_function(claim: Claim):
+    """No statistical error printed: the metric model's sampling floor at the estimate,
+    sqrt(v/N + B (1/K - 1/N)) (``MetricModel.standard_error``), as a function of the
+    estimate and the counts, with the counts' printed boxes.  None when the model lacks
+    an input or the counts are ones ``bounds`` flags (fewer samples than circuits)."""
+    n = count_for_error(claim)
+    model = metric_of(claim)
+    if n is None or claim.estimate is None or any(getattr(claim, f) is None for f in model.needs()):
+        return None
+    circuits = claim.circuits if model.count_field == "samples" else None
+    if fewer_samples_than_circuits(claim.samples, claim.circuits):
+        return None
+    base = model_inputs(claim)
+
+    def error(e, count, k=None):
+        inputs = replace(base, circuits=k) if k is not None else base
+        se = model.standard_error(e, count, inputs)
+        return math.nan if se is None else se
+
+    return error, [n.bounds] + ([circuits.bounds] if circuits is not None else [])
+
+
+def floor_error(claim: Claim) -> tuple[float, float] | None:
+    """The floor's range over the printed box of estimate and counts: the smallest error the
+    samples allow, so a significance from it is the most they allow (None: no floor)."""
+    floor = _floor_function(claim)
+    if floor is None:
+        return None
+    error, counts = floor
+    box = over_box(error, [claim.estimate.bounds, *counts])
+    return box if all(math.isfinite(v) for v in box) and box[0] > 0 else None
+
+
+def _recompute_at_floor(claim: Claim, convention: dict, syst: tuple[float, float], error, counts) -> Recomputed | None:
+    """z and log p with the statistical error at the floor, over the joint box of estimate,
+    counts and systematic (the floor moves with the estimate, so the two are not taken apart)."""
+    if floor_error(claim) is None:
+        return None
+    t = claim.threshold.value
+    # A marginalized systematic gives the quadrature p exactly for a Gaussian null (Cousins and
+    # Highland 1992), which the floor's z is.
+    sided, systematics = convention["sided"], convention["systematics"]
+
+    def z_of(e, ss, *c):
+        s = error(e, *c)
+        return (e - t) / ((s + ss) if systematics == "linear" else math.hypot(s, ss))
+
+    boxes = [claim.estimate.bounds, syst, *counts]
+    sigma = over_box(z_of, boxes)
+    if not all(math.isfinite(v) for v in sigma):
+        return None
+    log_p = over_box(lambda *a: log_p_from_sigma(z_of(*a), sided), boxes)
+    if sided == "two":
+        sigma = tuple(sorted(abs(x) for x in sigma)) if sigma[0] * sigma[1] > 0 else (0.0, max(map(abs, sigma)))
+    return Recomputed(convention, sigma, log_p)
+
+
+def uses_floor(claim: Claim) -> bool:
+    """The significance's statistical error is the model's floor: none is printed (nor an
+    interval), it is taken at the estimate, and the heavy-output criterion does not apply."""
+    return (statistical_error(claim)[0] is None and claim.significance.error_at == "estimate"
+            and not per_circuit(claim) and floor_error(claim) is not None)
 
 
 def per_circuit(claim: Claim) -> bool:
@@ -339,11 +404,63 @@ def _compare(printed_words, printed, printed_bounds, results, mine, pick, agree,
                    reproduced_by=reproduce, details=details, **about)
 
 
+def _systematic_not_printed(claim: Claim) -> Finding:
+    """``systematics: quadrature`` (or any treatment) with no ``syst_error``: the stated
+    convention has nothing to act on, which is a question for the authors (the paper may
+    name the treatment yet print no systematic error), not a reason to refuse the file."""
+    how = claim.significance.systematics
+    return Finding("warn", f"The claim states how the systematic error entered the significance "
+                   f"(systematics: {how}) but prints no syst_error, so only the statistical error can "
+                   "enter the recomputed significance.",
+                   details={"systematics": how, "missing": ["syst_error"]}, field="significance.systematics",
+                   statement="systematics_unprinted")
+
+
+def _against_floor(claim: Claim, mine: Recomputed, tol: float, conv_words: str,
+                   details: dict) -> Iterator[Finding]:
+    """With the statistical error at the model's sampling floor (none printed), the recomputed
+    sigma is the most the samples allow and the recomputed p the least: a printed sigma above
+    it (a p below it) is flagged, one at or below it agrees with sampling, since a real analysis
+    may hold more error than sampling alone (circuit spread, drift)."""
+    sig = claim.significance
+    if sig.sigma is not None:
+        most = mine.sigma[1]
+        about = {"field": sig.sigma.path, "statement": "sigma_vs_inputs", "printed": Shown.of(sig.sigma),
+                 "recomputed_range": Span(*mine.sigma), "tolerance": tol}
+        facts = {**details, "quantity": "sigma"}
+        if above(sig.sigma, most, tol):
+            yield Finding("fail", f"Printed {sig.sigma.text} sigma is more than the at most {span_text(mine.sigma)} "
+                          f"sigma that estimate, threshold and samples allow ({conv_words}).",
+                          reported=sig.sigma.value, recomputed=(mine.sigma[0] + most) / 2, details=facts, **about)
+        else:
+            yield Finding("pass", f"Printed {sig.sigma.text} sigma is within the at most {span_text(mine.sigma)} "
+                          f"sigma that estimate, threshold and samples allow ({conv_words}).",
+                          reported=sig.sigma.value, recomputed=(mine.sigma[0] + most) / 2, details=facts, **about)
+    p = sig.p_value
+    if p is not None and is_probability(p) and not printed_zero(p):
+        printed = log_bounds(p)
+        about = {"field": p.path, "statement": "p_vs_inputs", "printed": Shown.of(p),
+                 "recomputed_range": _log10_span(mine.log_p), "tolerance": tol}
+        facts = {**details, "quantity": "p_value"}
+        p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
+        # Below the least p the samples allow, by more than the relative tolerance (README).
+        if mine.log_p[0] - printed[1] > math.log1p(tol):
+            yield Finding("fail", f"Printed p = {p.text} is below the least p = {p_range_text(mine.log_p)} that "
+                          f"estimate, threshold and samples allow ({conv_words}).",
+                          reported=p.value, recomputed=p_mid, details=facts, **about)
+        else:
+            yield Finding("pass", f"Printed p = {p.text} is no smaller than the least p = {p_range_text(mine.log_p)} "
+                          f"that estimate, threshold and samples allow ({conv_words}).",
+                          reported=p.value, recomputed=p_mid, details=facts, **about)
+
+
 def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     sig = claim.significance
     stated = stated_convention(claim)
     conventions = _conventions(claim)
     results = _Lazy(r for r in (recompute(claim, c) for c in conventions) if r is not None)
+    if stated["systematics"] != "none" and claim.syst_error is None:
+        yield _systematic_not_printed(claim)
     mine = next((r for r in results if r.convention == stated), None)
     if mine is None and flagged_error(claim.stat_error):
         yield Finding("skip", f"Cannot recompute the significance; {skipped_words(claim.stat_error)}.",
@@ -355,18 +472,29 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
             missing.append("estimate")
         if claim.threshold is None:
             missing.append("threshold")
-        if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and not per_circuit(claim):
-            missing.append("stat_error (or interval)")
+        if (statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and not per_circuit(claim)
+                and floor_error(claim) is None):
+            missing.append("stat_error (or interval), or samples for the model's floor")
         if stated["error_at"] == "threshold" and count_for_error(claim) is None:
             missing.append(metric_of(claim).count_field)
         yield Finding("skip", f"Cannot recompute the significance; needs {' and '.join(missing) or 'more inputs'}.",
                       details={"missing": missing}, statement="needs_inputs")
         return
-    conv_words = convention_text(stated)
+    # A stated treatment of a systematic error that is not printed adds nothing: say what was
+    # used (the statistical error alone), not the stated treatment, and note the gap.
+    unprinted = stated["systematics"] != "none" and claim.syst_error is None
+    conv_words = convention_text({**stated, "systematics": "none"} if unprinted else stated)
+    if unprinted:
+        conv_words += f"; the claim states systematics: {stated['systematics']} but prints no syst_error"
     # Whether the systematic error widened the null (the HTML picture draws it so).
     syst_in = stated["systematics"] != "none" and claim.syst_error is not None and claim.syst_error.value > 0
     if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and per_circuit(claim):
         conv_words += ", the criterion's error over circuits sqrt(h(1 - h)/circuits)"
+    floor = stated["error_at"] == "estimate" and uses_floor(claim)
+    if floor:
+        n = count_for_error(claim)
+        conv_words += (f"; no stat_error is printed, so the statistical error is the {metric_of(claim).name} "
+                       f"model's sampling floor for {n.text} {metric_of(claim).count_field}, the least they allow")
     at_centre = central(claim, stated)
     details = {"convention": stated, "stated": sorted(sig.stated), "syst_in_error": syst_in,
                # z and log10 p at the printed central values, which a survey adjusts across its claims
@@ -376,7 +504,10 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                "log10_p_low": mine.log_p[0] / math.log(10), "log10_p_high": mine.log_p[1] / math.log(10),
                "tolerance": tol}
     sigma_mid = (mine.sigma[0] + mine.sigma[1]) / 2
-    if sig.sigma is not None:
+    if floor:
+        details["error_from"] = "floor"
+        yield from _against_floor(claim, mine, tol, conv_words, details)
+    if sig.sigma is not None and not floor:
         yield _compare(f"Printed {sig.sigma.text} sigma", sig.sigma, sig.sigma.bounds, results, mine,
                        lambda r: r.sigma, lambda a, b: agrees(a, b, tol),
                        f"{span_text(mine.sigma)} sigma",
@@ -387,7 +518,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                         "recomputed_range": Span(*mine.sigma), "tolerance": tol}, sig.stated)
     if sig.p_value is not None and not (is_probability(sig.p_value) and not printed_zero(sig.p_value)):
         yield _p_skipped(sig.p_value, "p_vs_inputs")
-    elif sig.p_value is not None:
+    elif sig.p_value is not None and not floor:
         p_mid = finite_or_none(math.exp((mine.log_p[0] + mine.log_p[1]) / 2))
         yield _compare(f"Printed p = {sig.p_value.text}", sig.p_value, log_bounds(sig.p_value), results, mine,
                        lambda r: r.log_p, lambda a, b: agrees_log(a, b, tol),
@@ -407,16 +538,19 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
         about = {"field": sig.required_sigma.path, "statement": "required_sigma",
                  "printed": Shown.of(sig.required_sigma), "recomputed_range": Span(*mine.sigma),
                  "tolerance": tol}
+        at_most = " (with the statistical error at its sampling floor, the most the samples allow)" if floor else ""
         if above(sig.required_sigma, mine.sigma[1], tol):
             yield Finding("fail", f"Recomputed {span_text(mine.sigma)} sigma falls short of the required "
-                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
+                          f"{sig.required_sigma.text} sigma{at_most}.", reported=need, recomputed=sigma_mid, details=facts, **about)
         elif mine.sigma[0] < need:
             yield Finding("warn", f"Recomputed {span_text(mine.sigma)} sigma reaches the required "
-                          f"{sig.required_sigma.text} sigma only within printed precision.",
+                          f"{sig.required_sigma.text} sigma only within printed precision{at_most}.",
                           reported=need, recomputed=sigma_mid, details=facts, **about)
         else:
-            yield Finding("pass", f"Recomputed {span_text(mine.sigma)} sigma clears the required "
-                          f"{sig.required_sigma.text} sigma.", reported=need, recomputed=sigma_mid, details=facts, **about)
+            yield Finding("pass", f"Recomputed {span_text(mine.sigma)} sigma clears the "
+                          f"required {sig.required_sigma.text} sigma" + (
+                              f"{at_most}; any error beyond sampling would lower it"
+                              if floor else "") + ".", reported=need, recomputed=sigma_mid, details=facts, **about)
         yield from _criterion(claim, mine, tol)
 
 
@@ -461,6 +595,9 @@ SPEC = CheckSpec(
                       "error over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached."),
             if_reproduced=("Is {what} reached only {reproduced}? The heavy-output criterion takes the error "
                            "over circuits, sqrt(h(1 - h)/circuits), and with it the level is not reached.")),
+        "systematics_unprinted": Statement(
+            question=("What systematic error entered the significance? The claim says how it was treated "
+                      "but prints none.")),
         "inputs_only": ABOUT_THE_CLAIM,
         "needs_inputs": ABOUT_THE_CLAIM,
         "signal_yield": Statement(

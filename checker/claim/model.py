@@ -34,6 +34,21 @@ ZERO_COUNT_FIELDS = {"observed", "discordant"}
 NO_PERCENT_FIELDS = COUNT_FIELDS | ZERO_COUNT_FIELDS | {"background", "background_error", "sigma", "required_sigma", "global_sigma", "upcrossings", "upcrossing_sigma"}
 
 
+# Printed errors that ``error_level`` describes: each is divided by the level's multiple of the
+# standard error when the claim is built, so every check reads one-sigma errors.
+ERROR_FIELDS = {"stat_error", "syst_error", "difference_error", "factor_error", "background_error"}
+SIGMA_LEVEL = re.compile(r"\s*(?P<k>[0-9]*\.?[0-9]+)\s*(?:-\s*)?(?:sigma|σ|sd|se)\s*", re.IGNORECASE)
+
+
+@dataclass(frozen=True)
+class ErrorLevel:
+    """What a printed error stands for: ``multiple`` standard errors (1.96 for a 95% half-width,
+    2 for a two-sigma bar), with the words a message shows ("95% half-width", "2-sigma bar")."""
+
+    multiple: float
+    words: str
+
+
 @dataclass(frozen=True)
 class Reported:
     """A number as the claim printed it.
@@ -209,6 +224,7 @@ class Claim:
     integer_data: bool = False
     items: Reported | None = None
     tolerance: float = DEFAULT_TOLERANCE
+    error_level: ErrorLevel | None = None  # None: printed errors are one standard error
     counts_table: CountsTable | None = None
     rates: tuple[PrintedRate, ...] = ()
     observed: Reported | None = None
@@ -225,6 +241,50 @@ class Claim:
 class _Builder:
     def __init__(self, doc: Document):
         self.doc = doc
+        self.error_level = self._error_level(doc.data.get("error_level"))
+
+    def _error_level(self, raw) -> ErrorLevel | None:
+        """``error_level``: a coverage (0.95, 95%: the half-width of a central interval of that
+        probability, z = Phi^-1((1 + c)/2)) or a multiple of the standard error ("2 sigma")."""
+        if raw is None:
+            return None
+        path = ("error_level",)
+        text = (self.doc.texts.get(path) or str(raw)).strip()
+        allowed = "a coverage such as 0.95 or 95% (a 95% half-width), or a multiple such as '2 sigma'"
+        sigma = SIGMA_LEVEL.fullmatch(text)
+        if sigma:
+            k = float(sigma.group("k"))
+            if not 0 < k <= 40:
+                self.fail(path, f"error_level {text} must be a multiple of the standard error above 0", allowed)
+            return ErrorLevel(k, f"{sigma.group('k')}-sigma bar")
+        try:
+            coverage = parse_printed(text, exact=True).value
+        except ValueError:
+            self.fail(path, f"error_level must be a coverage or a multiple of sigma, got {_shortened(text)!r}",
+                      allowed)
+        if not 0.0 < coverage < 1.0:
+            self.fail(path, f"error_level {text} is not a coverage between 0 and 1"
+                      + (f" (for {text} standard errors write '{text} sigma')" if coverage >= 1 else ""), allowed)
+        # The standard library's normal quantile (Wichura's AS 241, accurate to about 1e-16),
+        # so that building a claim needs no scipy.
+        from statistics import NormalDist
+
+        shown = text if text.endswith("%") else f"{coverage:.6g}"
+        return ErrorLevel(NormalDist().inv_cdf((1.0 + coverage) / 2.0), f"{shown} half-width")
+
+    def one_sigma(self, rep: Reported | None) -> Reported | None:
+        """A printed error at ``error_level`` as one standard error, its text saying so
+        ("0.4e-3 (95% half-width: 0.204e-3 at one sigma)")."""
+        level = self.error_level
+        if rep is None or level is None or level.multiple == 1.0:
+            return rep
+        from ..wording import like
+
+        k = level.multiple
+        shift = math.log(k)
+        return replace(rep, value=rep.value / k, low=rep.low / k, high=rep.high / k,
+                       text=f"{rep.text} ({level.words}: {like(rep.value / k, rep.text)} at one sigma)",
+                       log_low=rep.log_low - shift, log_high=rep.log_high - shift)
 
     def fail(self, path, problem, allowed):
         raise ClaimSchemaError(self.doc.file, problem, allowed, path=dotted(path),
@@ -264,8 +324,9 @@ class _Builder:
         if counting and (printed.value < 1 or printed.value != math.floor(printed.value)):
             self.fail(path, f"{name} must be a whole number of at least 1, got {text}",
                       "counts are whole numbers such as 30 or 2.5e7")
-        return Reported(printed.value, printed.low, printed.high, text, dotted(path),
-                        self.doc.line_of(path), printed.log_low, printed.log_high)
+        rep = Reported(printed.value, printed.low, printed.high, text, dotted(path),
+                       self.doc.line_of(path), printed.log_low, printed.log_high)
+        return self.one_sigma(rep) if name in ERROR_FIELDS else rep
 
     def _fraction(self, text: str, path: tuple) -> Reported:
         """An exact fraction: its value as near as a double holds it, no printed
@@ -358,7 +419,7 @@ class _Builder:
             tolerance=tolerance.value if tolerance is not None else DEFAULT_TOLERANCE,
             counts_table=counts_table, rates=rates,
             observed=observed, background=background, background_error=num("background_error"),
-            baseline=baseline, comparison=comparison,
+            baseline=baseline, comparison=comparison, error_level=self.error_level,
         )
 
     def interval(self, iv: dict | None, path: tuple) -> Interval | None:
@@ -445,6 +506,14 @@ class _Builder:
                 if d.get(key) is not None:
                     self.fail((key,), f"{key} belongs to a counting experiment, but metric is {d['metric']}",
                               "write metric: counts, or leave out observed, background and background_error")
+        if d.get("integer_data") is True and d["metric"] != "mean":
+            # A field of another kind of claim, refused like observed above: integer_data says how
+            # a mean's responses were scored, which no other metric has.
+            kind = ("a proportion is already a count over whole items, and granularity tests it as one"
+                    if d["metric"] == "proportion" else f"a {d['metric']} estimate is not a mean of responses")
+            self.fail(("integer_data",), f"integer_data belongs to metric mean (a mean of whole-number "
+                      f"responses), but metric is {d['metric']}; {kind}",
+                      "leave integer_data out, or write metric: mean")
         if estimate is not None or counting or d.get("counts_table"):
             return
         only_significances = (sig.sigma is not None or sig.p_value is not None) and sig.global_sigma is not None

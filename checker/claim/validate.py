@@ -124,6 +124,10 @@ def describe(err, doc: Document) -> tuple[str, str]:
         close = choice_suggestions(err.instance, schema["enum"])
         hint = f"did you mean {' or '.join(map(repr, close))}? " if close else ""
         return (f"{field} is {err.instance!r}", f"{hint}allowed: {choices}")
+    if validator in ("anyOf", "oneOf") and path == ("error_level",):
+        shown = text if text is not None else json.dumps(err.instance)[:60]
+        return (f"error_level must be a coverage or a multiple of sigma, got {shown!r}",
+                "a coverage such as 0.95 or 95% (a 95% half-width), or a multiple such as '2 sigma'")
     if validator in ("anyOf", "oneOf"):
         kinds = {s.get("type") for s in schema[validator]}
         instance = err.instance

@@ -6,7 +6,6 @@ from __future__ import annotations
 import argparse
 import math
 import re
-from fractions import Fraction
 
 
 def finite(text: str) -> float:
@@ -25,6 +24,8 @@ def value(text: str) -> float:
     level; significances in sigma and counts use ``finite`` and ``whole``."""
     stripped = text.strip()
     if re.fullmatch(r"[+-]?[0-9]+/[1-9][0-9]*", stripped):  # an exact fraction, as in claim files: 2/3
+        from fractions import Fraction  # here, not at the top: `claimcheck --help` stays light
+
         return float(Fraction(stripped))
     if stripped.endswith("%"):
         try:

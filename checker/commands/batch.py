@@ -82,9 +82,8 @@ def _inputs(path: Path) -> list:
 
 def run(args, stdout, stderr) -> int:
     from ..errors import OutputError
-    from ..output import check_targets, write_atomic
+    from ..output import check_targets
     from ..render.survey_text import render_batch_text, render_problems
-    from ..survey import run_batch
     from ..visible import visible
     from ..wording import plural
 
@@ -96,28 +95,56 @@ def run(args, stdout, stderr) -> int:
         if fmt is None:
             raise OutputError(args.out, f"has the extension {Path(args.out).suffix or '(none)'!r}",
                               "write the table to a file ending in .csv, .json or .html")
+    if fmt in ("json", "html"):
+        return _run_whole(args, stdout, stderr, fmt, inputs)
+    # No --out, or a CSV: the table streamed through, never held (issue 13).
+    from ..output import write_pieces_atomic
+    from ..render.survey_text import render_batch_csv
+    from ..survey.run import stream_batch
+
+    progress = Progress(stderr)
+    try:
+        result = stream_batch(args.table, jobs=args.jobs, progress=progress, keep_rows=fmt == "csv")
+    finally:
+        progress.close()
+    try:
+        if fmt == "csv":
+            pieces = (render_batch_csv(frame, header=i == 0) for i, frame in enumerate(result.frames()))
+            write_pieces_atomic(args.out, pieces, inputs)
+    finally:
+        result.close()
+    if result.problems:
+        stderr.write(visible(render_problems(result.problems, total=result.problem_count)))
+    stdout.write(render_batch_text(result.flagged, result.summary))
+    if args.out is not None:
+        stdout.write(f"wrote {plural(result.summary['rows'], 'row')} to {args.out}\n")
+    return result.exit_status
+
+
+def _run_whole(args, stdout, stderr, fmt: str, inputs: list) -> int:
+    """JSON and HTML: the whole table in memory, as the notebook API gives it."""
+    from ..output import write_atomic
+    from ..render.survey_text import render_batch_text, render_problems
+    from ..survey import run_batch
+    from ..visible import visible
+    from ..wording import plural
+
     progress = Progress(stderr)
     try:
         result = run_batch(args.table, jobs=args.jobs, progress=progress)
     finally:
         progress.close()
-    if args.out is not None:
-        if fmt == "csv":
-            from ..render.survey_text import render_batch_csv
+    if fmt == "json":
+        from ..render.survey_text import render_batch_json
 
-            text = render_batch_csv(result.frame)
-        elif fmt == "json":
-            from ..render.survey_text import render_batch_json
+        text = render_batch_json(result.frame, result.summary)
+    else:
+        from ..render.survey_html import render_batch_html
 
-            text = render_batch_json(result.frame, result.summary)
-        else:
-            from ..render.survey_html import render_batch_html
-
-            text = render_batch_html(result.frame, result.summary)
-        write_atomic(args.out, text, inputs)
+        text = render_batch_html(result.frame, result.summary)
+    write_atomic(args.out, text, inputs)
     if result.problems:
         stderr.write(visible(render_problems(result.problems)))
     stdout.write(render_batch_text(result.frame, result.summary))
-    if args.out is not None:
-        stdout.write(f"wrote {plural(len(result.frame), 'row')} to {args.out}\n")
+    stdout.write(f"wrote {plural(len(result.frame), 'row')} to {args.out}\n")
     return result.exit_status

@@ -14,6 +14,7 @@ import re
 from ..claim.model import Claim
 from ..report import Report
 from ..vocabulary import CAUTION, STATUS_WORDS
+from ..wording import and_list
 from .notes import (Point, SharedPoint, brief_passes, field_words, is_plain_number, one_line, points,
                     raised_points, summary_lines, summary_tables)
 
@@ -95,14 +96,11 @@ def _brief_passes(agreed: list[Point]) -> list[str]:
     lines = []
     for label, messages, where in brief_passes(agreed):
         if where is not None:
-            lines.append(f"- {md(label)}: agrees for {md(_join(list(where)))}.")
+            lines.append(f"- {md(label)}: agrees for {md(and_list(list(where)))}.")
         else:
             lines.append(f"- {md(label)}: " + " ".join(md(m) for m in messages))
     return lines
 
-
-def _join(items: list[str]) -> str:
-    return items[0] if len(items) == 1 else ", ".join(items[:-1]) + " and " + items[-1]
 
 
 def render_markdown(report: Report, claim: Claim) -> str:

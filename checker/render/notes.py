@@ -21,7 +21,7 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Report
 from ..visible import visible
 from ..vocabulary import convention_words
-from ..wording import num, num_range
+from ..wording import and_list, num, num_range
 
 _PLAIN_NUMBER = re.compile(r"-?[0-9.]+(e-?[0-9]+)?( to -?[0-9.]+(e-?[0-9]+)?)?")
 
@@ -276,7 +276,7 @@ def _shared_point(group: list[Finding], claim: Claim | None) -> SharedPoint:
         name = field_words(p.printed_field)
         named.append(f"the printed {name} {p.printed}" if name else f"the printed {p.printed}")
     named = list(dict.fromkeys(named))
-    what = _join(named) if named else "these numbers"
+    what = and_list(named) if named else "these numbers"
     first = group[0]
     spec = spec_for(first.check)
     statement = spec.statement(first.statement) if spec is not None else None
@@ -286,7 +286,7 @@ def _shared_point(group: list[Finding], claim: Claim | None) -> SharedPoint:
     status = "fail" if any(p.status == "fail" for p in members) else "warn"
     prints = "the print" if len({(p.printed_field, p.printed) for p in members}) == 1 else "each print"
     opening = f"One slip explains {len(members)} findings: {prints} would follow {reproduced}."
-    return SharedPoint(status=status, heading=_join(headings), reproduced=reproduced,
+    return SharedPoint(status=status, heading=and_list(headings), reproduced=reproduced,
                        question=question, opening=opening, members=members)
 
 
@@ -326,7 +326,7 @@ def summary_lines(report: Report) -> tuple[str, str]:
             parts.append(f"{c['warn']} {'deserves' if c['warn'] == 1 else 'deserve'} a word from the authors")
         parts.append(f"{c['pass']} {'agrees' if c['pass'] == 1 else 'agree'}")
         first = (f"claimcheck held this claim's printed numbers against what its own inputs imply, "
-                 f"in {checked} {'comparison' if checked == 1 else 'comparisons'}: {_join(parts)}"
+                 f"in {checked} {'comparison' if checked == 1 else 'comparisons'}: {and_list(parts)}"
                  + (f"; {c['skip']} more could not be made for want of inputs." if c["skip"] else "."))
     if c.get("info"):
         first += (f" {c['info']} {'value is' if c['info'] == 1 else 'values are'} recomputed for "
@@ -343,11 +343,6 @@ def summary_lines(report: Report) -> tuple[str, str]:
         second = "Verdict: incomplete. The claim would need the inputs listed under 'Not checked'."
     return first, second
 
-
-def _join(items: list[str]) -> str:
-    if len(items) <= 1:
-        return "".join(items)
-    return ", ".join(items[:-1]) + " and " + items[-1]
 
 
 def summary_tables(report: Report) -> list:

@@ -14,6 +14,7 @@ import textwrap
 from ..claim.model import Claim
 from ..report import Report
 from ..vocabulary import CAUTION, STATUS_WORDS
+from ..wording import and_list
 from .notes import (Point, SharedPoint, brief_passes, field_words, one_line, points, raised_points,
                     summary_lines, summary_tables)
 
@@ -127,25 +128,17 @@ def render_plain_text(report: Report, claim: Claim) -> str:
     if agreed:
         out += _heading("What agrees", "-")
         for label, messages, where_ in brief_passes(agreed):
-            text = f"{label}: agrees for {_join(list(where_))}." if where_ is not None \
+            text = f"{label}: agrees for {and_list(list(where_))}." if where_ is not None \
                 else f"{label}: " + " ".join(messages)
             out += _wrap(text, "- ", "  ")
         out.append("")
-    informed = list(points(report, claim, ("info",)))
-    if informed:
-        out += _heading("For information", "-")
-        for p in informed:
-            out += _wrap(f"{p.heading}: {p.message}", "- ", "  ")
-        out.append("")
-    skipped = list(points(report, claim, ("skip",)))
-    if skipped:
-        out += _heading("Not checked", "-")
-        for p in skipped:
-            out += _wrap(f"{p.heading}: {p.message}", "- ", "  ")
-        out.append("")
+    for status, title in (("info", "For information"), ("skip", "Not checked")):
+        listed = list(points(report, claim, (status,)))
+        if listed:
+            out += _heading(title, "-")
+            for p in listed:
+                out += _wrap(f"{p.heading}: {p.message}", "- ", "  ")
+            out.append("")
     out += ["-" * WIDTH, ""] + _wrap(CAUTION) + [""]
     return "\n".join(out)
 
-
-def _join(items: list[str]) -> str:
-    return items[0] if len(items) == 1 else ", ".join(items[:-1]) + " and " + items[-1]

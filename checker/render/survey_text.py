@@ -69,18 +69,22 @@ def render_batch_text(frame, summary: dict) -> str:
                 index=False, name=None):
             short = title if len(title) <= 60 else title[:57] + "..."
             lines.append(f"  {source:<{width}}  {short}  [{failed.replace(';', ', ')}]")
-        if len(flagged) > SHOW_AT_MOST:
-            lines.append(f"  ... and {len(flagged) - SHOW_AT_MOST:,} more (write them all with --out)")
+        # a streamed batch passes only the first flagged rows; the summary counts them all
+        n = max(len(flagged), v["inconsistent"])
+        if n > SHOW_AT_MOST:
+            lines.append(f"  ... and {n - SHOW_AT_MOST:,} more (write them all with --out)")
     if v["inconsistent"]:
         lines += ["", CAUTION_SHORT]
     return "\n".join(lines) + "\n"
 
 
-def render_problems(problems, limit: int = SHOW_AT_MOST) -> str:
-    """The rows that could not be used, one line each (at most ``limit``)."""
+def render_problems(problems, limit: int = SHOW_AT_MOST, total: int | None = None) -> str:
+    """The rows that could not be used, one line each (at most ``limit``);
+    ``total`` is how many there are when ``problems`` holds only the first."""
     lines = list(problems[:limit])
-    if len(problems) > limit:
-        lines.append(f"... and {len(problems) - limit:,} more that could not be used "
+    total = len(problems) if total is None else total
+    if total > limit:
+        lines.append(f"... and {total - limit:,} more that could not be used "
                      "(each is in the table written with --out)")
     return "".join(line + "\n" for line in lines)
 
@@ -130,14 +134,16 @@ def inert_cell(text: str) -> str:
     return text
 
 
-def render_batch_csv(frame) -> str:
+def render_batch_csv(frame, header: bool = True) -> str:
     # The csv module over pre-formatted columns: a third faster than DataFrame.to_csv for
-    # 100,000 claims, and the same text.
+    # 100,000 claims, and the same text.  Without ``header``, the rows only (a streamed
+    # batch writes its table a chunk at a time).
     import csv
     import io
 
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\n")
-    writer.writerow(frame.columns)
+    if header:
+        writer.writerow(frame.columns)
     writer.writerows(zip(*(_csv_texts(frame[c]) for c in frame.columns)))
     return buffer.getvalue()

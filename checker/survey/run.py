@@ -13,6 +13,7 @@ goes on.
 
 from __future__ import annotations
 
+import itertools
 import math
 import os
 from dataclasses import dataclass, field, fields
@@ -25,7 +26,7 @@ from ..errors import ClaimcheckError
 from ..report import log10_of_printed
 from ..visible import visible
 from .columns import ColumnPlan
-from .table import Folder, Row, SurveyTable, read_source
+from .table import Folder, Row, StreamedTable, SurveyTable, read_source, stream_source
 
 UNUSABLE = "unusable"
 NAN = math.nan
@@ -229,49 +230,186 @@ def available_cpus() -> int:
         return os.cpu_count() or 1
 
 
-def _records(source: SurveyTable | Folder, jobs: int | None, progress) -> list:
-    items: Sequence = source.rows if isinstance(source, SurveyTable) else source.files
-    header = source.header if isinstance(source, SurveyTable) else None
+def _items(source) -> tuple:
+    """(header or None, the number of items, a fresh iterator over them) of a table or folder."""
+    if isinstance(source, StreamedTable):
+        return source.header, source.count, source.rows()
+    if isinstance(source, SurveyTable):
+        return source.header, len(source.rows), iter(source.rows)
+    return None, len(source.files), iter(source.files)
+
+
+def _chunks(items, size: int):
+    while True:
+        chunk = list(itertools.islice(items, size))
+        if not chunk:
+            return
+        yield chunk
+
+
+def record_chunks(source: SurveyTable | StreamedTable | Folder, jobs: int | None, progress):
+    """The records of every claim, one list per chunk of :data:`CHUNK` claims, in order.
+
+    At most two chunks per worker are in flight, so the parent holds a few
+    thousand rows and records at any time whatever the table's length (issue 13)."""
+    header, total, items = _items(source)
     plan = ColumnPlan(header, source.name) if header is not None else None  # header problems: before any work
-    total = len(items)
     if jobs is None:
         jobs = 1 if total < PARALLEL_FROM else min(available_cpus(), 8)
     jobs = max(1, min(int(jobs), max(1, total // 2)))
-    chunks = [items[i:i + CHUNK] for i in range(0, total, CHUNK)]
-    out: list = []
+    done = 0
     if jobs == 1:
-        for chunk in chunks:
+        for chunk in _chunks(items, CHUNK):
             if plan is not None:
-                out.extend(check_row(plan, r) for r in chunk)
+                records = [check_row(plan, r) for r in chunk]
             else:
-                out.extend(check_file(p) for p in chunk)
+                records = [check_file(p) for p in chunk]
+            done += len(records)
             if progress:
-                progress(len(out), total)
-        return out
+                progress(done, total)
+            yield records
+        return
     import multiprocessing
+    from collections import deque
     from concurrent.futures import ProcessPoolExecutor
 
     methods = multiprocessing.get_all_start_methods()
     context = multiprocessing.get_context("fork" if "fork" in methods else None)
     with ProcessPoolExecutor(max_workers=jobs, mp_context=context, initializer=_start_worker,
                              initargs=(header, source.name)) as pool:
-        for records in pool.map(_work, chunks):
-            out.extend(records)
+        pending: deque = deque()
+        chunks = _chunks(items, CHUNK)
+        while True:
+            for chunk in chunks:
+                pending.append(pool.submit(_work, chunk))
+                if len(pending) >= 2 * jobs:
+                    break
+            if not pending:
+                return
+            records = pending.popleft().result()
+            done += len(records)
             if progress:
-                progress(len(out), total)
+                progress(done, total)
+            yield records
+
+
+def _records(source, jobs: int | None, progress) -> list:
+    out: list = []
+    for records in record_chunks(source, jobs, progress):
+        out.extend(records)
     return out
 
 
 # --- across the set ------------------------------------------------------
 
-def summarize(records: list, name: str, unit: str = "row"):
-    """The summary frame and the set-wide counts from the per-claim records
-    (``unit`` is what one record came from: a table ``row`` or a ``file``)."""
-    import numpy as np
-    import pandas as pd
+METHODS = ("", "sidak", "gross-vitells")
 
+
+@dataclass(frozen=True)
+class Family:
+    """What the set-wide adjustment and counts need of each claim, as compact
+    columns (some 30 bytes a claim): the log p it is adjusted by (its
+    look-elsewhere-corrected one where it states trials or upcrossings), its
+    sidedness, required sigma, look-elsewhere method (index into
+    :data:`METHODS`) and verdict (index into :data:`VERDICTS`)."""
+
+    log_p_used: Any
+    sigma_used: Any
+    two_sided: Any
+    required_sigma: Any
+    method: Any
+    verdict: Any
+
+
+def family_of(records: list) -> Family:
+    import numpy as np
+
+    corrected = np.fromiter((bool(r.look_elsewhere) for r in records), bool, len(records))
+    log_p = np.fromiter((r.log_p for r in records), float, len(records))
+    log_p_global = np.fromiter((r.log_p_global for r in records), float, len(records))
+    sigma = np.fromiter((r.sigma for r in records), float, len(records))
+    sigma_global = np.fromiter((r.sigma_global for r in records), float, len(records))
+    return Family(
+        log_p_used=np.where(corrected, log_p_global, log_p),
+        sigma_used=np.where(corrected, sigma_global, sigma),
+        two_sided=np.fromiter((r.two_sided for r in records), bool, len(records)),
+        required_sigma=np.fromiter((r.required_sigma for r in records), float, len(records)),
+        method=np.fromiter((METHODS.index(r.look_elsewhere) for r in records), np.int8, len(records)),
+        verdict=np.fromiter((VERDICTS.index(r.verdict) for r in records), np.int8, len(records)))
+
+
+def join_families(parts: list) -> Family:
+    import numpy as np
+
+    return Family(*(np.concatenate([getattr(f, k.name) for f in parts]) for k in fields(Family)))
+
+
+@dataclass(frozen=True)
+class SetWide:
+    """The adjustment across the whole set and what follows from it, per claim."""
+
+    adjusted: Any  # stats.adjust.Adjustment
+    sigma_holm: Any
+    sigma_bh: Any
+
+    def part(self, start: int, stop: int) -> "SetWide":
+        a = self.adjusted
+        return SetWide(type(a)(a.tested, a.p_holm[start:stop], a.p_bh[start:stop], a.log_p_holm[start:stop],
+                               a.log_p_bh[start:stop]), self.sigma_holm[start:stop], self.sigma_bh[start:stop])
+
+
+def set_wide(family: Family) -> SetWide:
     from ..stats.adjust import adjust_log_p_values
     from ..stats.columnwise import sigma_from_log_p
+
+    adjusted = adjust_log_p_values(family.log_p_used)
+    return SetWide(adjusted, sigma_from_log_p(adjusted.log_p_holm, family.two_sided),
+                   sigma_from_log_p(adjusted.log_p_bh, family.two_sided))
+
+
+def _clears(need, sigma):
+    import numpy as np
+
+    known = np.isfinite(need) & ~np.isnan(sigma)
+    return known, np.where(known, sigma >= need, False)
+
+
+def summary_of(family: Family, wide: SetWide, name: str, unit: str) -> dict:
+    """The set-wide counts (see :func:`summarize`)."""
+    import numpy as np
+
+    corrected = family.method > 0
+    known, raw = _clears(family.required_sigma, family.sigma_used)
+    _, holm = _clears(family.required_sigma, wide.sigma_holm)
+    _, bh = _clears(family.required_sigma, wide.sigma_bh)
+    counts = np.bincount(family.verdict, minlength=len(VERDICTS))
+    verdicts = {v: int(counts[i]) for i, v in enumerate(VERDICTS)}
+    used = ~np.isnan(family.log_p_used)
+    rows = int(family.verdict.size)
+    return {
+        "table": name,
+        "unit": unit,
+        "rows": rows,
+        "checked": rows - verdicts[UNUSABLE],
+        "unusable": verdicts[UNUSABLE],
+        "verdicts": {k: verdicts[k] for k in VERDICTS[:3]},
+        "tested": wide.adjusted.tested,
+        "with_required_sigma": int(known.sum()),
+        # claims whose required-sigma test and adjustment used the look-elsewhere-corrected value
+        "look_elsewhere_corrected": int(corrected[used].sum()),
+        "look_elsewhere_methods": {m: int(((family.method == METHODS.index(m)) & used).sum())
+                                   for m in ("sidak", "gross-vitells")},
+        "look_elsewhere_required": int((known & corrected).sum()),
+        "clear_required_sigma": {"recomputed": int(raw[known].sum()), "holm": int(holm[known].sum()),
+                                 "bh": int(bh[known].sum())},
+    }
+
+
+def frame_of(records: list, wide: SetWide):
+    """The summary frame (columns :data:`COLUMNS`) of some consecutive claims,
+    given the set-wide adjustment of those claims."""
+    import numpy as np
+    import pandas as pd
 
     names = [f.name for f in fields(ClaimRecord)]
     col = {k: [getattr(r, k) for r in records] for k in names}
@@ -279,7 +417,6 @@ def summarize(records: list, name: str, unit: str = "row"):
     # undecodable name or a "\ud800" escape is not even storable in a string column).
     for key in ("source", "title", "claim_source", "problem", "sigma_printed", "p_printed"):
         col[key] = [visible(x) for x in col[key]]
-    two = np.asarray(col["two_sided"], dtype=bool)
     sigma = np.asarray(col["sigma"], dtype=float)
     log_p = np.asarray(col["log_p"], dtype=float)
     sigma_global = np.asarray(col["sigma_global"], dtype=float)
@@ -291,31 +428,23 @@ def summarize(records: list, name: str, unit: str = "row"):
     # A claim that states trials or upcrossings is held to its required sigma, and adjusted
     # across the set, by its look-elsewhere-corrected significance; any other by its local one.
     sigma_used = np.where(corrected, sigma_global, sigma)
-    log_p_used = np.where(corrected, log_p_global, log_p)
-    adjusted = adjust_log_p_values(log_p_used)
-    sigma_holm = sigma_from_log_p(adjusted.log_p_holm, two)
-    sigma_bh = sigma_from_log_p(adjusted.log_p_bh, two)
+    adjusted = wide.adjusted
     need = np.asarray(col["required_sigma"], dtype=float)
-
-    def clears(sigma):
-        known = np.isfinite(need) & ~np.isnan(sigma)
-        return known, np.where(known, sigma >= need, False)
-
-    known, raw = clears(sigma_used)
-    _, holm = clears(sigma_holm)
-    _, bh = clears(sigma_bh)
+    known, raw = _clears(need, sigma_used)
+    _, holm = _clears(need, wide.sigma_holm)
+    _, bh = _clears(need, wide.sigma_bh)
 
     def maybe(flag):
         # True / False, and missing where the claim states no required_sigma
         # or has no recomputed significance.
         return pd.arrays.BooleanArray(np.asarray(flag, dtype=bool), ~known)
 
-    frame = pd.DataFrame({
+    return pd.DataFrame({
         "source": col["source"], "title": col["title"], "verdict": col["verdict"],
         "failed_checks": col["failed_checks"], "sigma_recomputed": sigma, "p_recomputed": p,
         "p_holm": adjusted.p_holm, "p_bh": adjusted.p_bh, "required_sigma": need,
         "clears_required": maybe(raw), "clears_holm": maybe(holm), "clears_bh": maybe(bh),
-        "sigma_holm": sigma_holm, "sigma_bh": sigma_bh, "look_elsewhere": col["look_elsewhere"],
+        "sigma_holm": wide.sigma_holm, "sigma_bh": wide.sigma_bh, "look_elsewhere": col["look_elsewhere"],
         "sigma_global": sigma_global, "p_global": p_global, "log10_p_global": log_p_global / LN10,
         "sigma_printed": col["sigma_printed"], "p_printed": col["p_printed"],
         # log10 p beside every p: exact where p itself underflows to 0 (issue 16)
@@ -328,25 +457,16 @@ def summarize(records: list, name: str, unit: str = "row"):
         "for_information": np.asarray(col["for_information"], dtype=int),
         "problem": col["problem"],
     }, columns=list(COLUMNS))
-    verdicts = {v: int(sum(1 for x in col["verdict"] if x == v)) for v in VERDICTS}
-    summary = {
-        "table": name,
-        "unit": unit,
-        "rows": len(records),
-        "checked": len(records) - verdicts[UNUSABLE],
-        "unusable": verdicts[UNUSABLE],
-        "verdicts": {k: verdicts[k] for k in VERDICTS[:3]},
-        "tested": adjusted.tested,
-        "with_required_sigma": int(known.sum()),
-        # claims whose required-sigma test and adjustment used the look-elsewhere-corrected value
-        "look_elsewhere_corrected": int(corrected[~np.isnan(log_p_used)].sum()),
-        "look_elsewhere_methods": {m: int(sum(1 for x, ok in zip(col["look_elsewhere"], ~np.isnan(log_p_used))
-                                               if x == m and ok)) for m in ("sidak", "gross-vitells")},
-        "look_elsewhere_required": int((known & corrected).sum()),
-        "clear_required_sigma": {"recomputed": int(raw[known].sum()), "holm": int(holm[known].sum()),
-                                 "bh": int(bh[known].sum())},
-    }
-    problems = tuple(p for p in col["problem"] if p)
+
+
+def summarize(records: list, name: str, unit: str = "row"):
+    """The summary frame and the set-wide counts from the per-claim records
+    (``unit`` is what one record came from: a table ``row`` or a ``file``)."""
+    family = family_of(records)
+    wide = set_wide(family)
+    frame = frame_of(records, wide)
+    summary = summary_of(family, wide, name, unit)
+    problems = tuple(visible(r.problem) for r in records if r.problem)
     return frame, summary, problems
 
 
@@ -381,3 +501,104 @@ def run_batch(source: Any, jobs: int | None = None,
     frame, summary, problems = summarize(records, table.name, "row" if isinstance(table, SurveyTable) else "file")
     problems = getattr(table, "notes", ()) + problems  # a folder's second names of one file
     return BatchResult(table.name, frame, summary, problems)
+
+
+# --- a batch that does not hold its table ---------------------------------
+
+SHOW_FIRST = 20  # problems and flagged claims kept for the terminal summary (it shows 20)
+
+
+@dataclass(frozen=True)
+class StreamedBatch:
+    """A batch checked without holding its table (``claimcheck batch``, issue 13).
+
+    The parent keeps the compact columns the set-wide adjustment needs
+    (:class:`Family`), the summary counts, the first :data:`SHOW_FIRST`
+    problems and flagged claims, and, when the table is to be written, the
+    records in a temporary spool file read back by :meth:`frames`.
+
+    Attributes
+    ----------
+    name, summary : as :class:`BatchResult`
+    problems : tuple of str
+        The first problems (folder notes first), of ``problem_count`` in all.
+    flagged : pandas.DataFrame
+        source, title, verdict and failed_checks of the first inconsistent claims.
+    """
+
+    name: str
+    summary: dict
+    problems: tuple
+    problem_count: int
+    flagged: Any
+    wide: Any
+    spool: Any = None
+
+    @property
+    def exit_status(self) -> int:
+        if self.summary["verdicts"]["inconsistent"]:
+            return 1
+        return 2 if self.summary["unusable"] else 0
+
+    def frames(self):
+        """The summary frame (columns :data:`COLUMNS`) a chunk at a time, in
+        order: together, row for row, the frame :func:`run_batch` makes."""
+        import pickle
+
+        if self.spool is None:
+            raise ValueError("this batch kept no rows (stream_batch with keep_rows=False)")
+        self.spool.seek(0)
+        start = 0
+        while True:
+            try:
+                records = pickle.load(self.spool)
+            except EOFError:
+                return
+            stop = start + len(records)
+            yield frame_of(records, self.wide.part(start, stop))
+            start = stop
+
+    def close(self) -> None:
+        if self.spool is not None:
+            self.spool.close()
+
+
+def stream_batch(source: Any, jobs: int | None = None, progress: Callable[[int, int], None] | None = None,
+                 keep_rows: bool = True) -> StreamedBatch:
+    """:func:`run_batch` without holding the table: a CSV/TSV path is read a
+    chunk at a time, and each chunk's records go to a temporary spool file
+    (``keep_rows``) rather than staying in memory; the parent keeps some 30
+    bytes a claim for the adjustment across the set.  Same parameters and
+    errors as :func:`run_batch`; the caller closes the result."""
+    import pickle
+    import tempfile
+
+    import pandas as pd
+
+    table = stream_source(source)
+    unit = "file" if isinstance(table, Folder) else "row"
+    spool = tempfile.TemporaryFile(prefix="claimcheck-batch-") if keep_rows else None
+    try:
+        families, problems, flagged, count = [], [], [], 0
+        for records in record_chunks(table, jobs, progress):
+            families.append(family_of(records))
+            for r in records:
+                if r.problem:
+                    count += 1
+                    if len(problems) < SHOW_FIRST:
+                        problems.append(visible(r.problem))
+                if r.verdict == "inconsistent" and len(flagged) < SHOW_FIRST:
+                    flagged.append((visible(r.source), visible(r.title), r.verdict, r.failed_checks))
+            if spool is not None:
+                pickle.dump(records, spool, protocol=pickle.HIGHEST_PROTOCOL)
+        family = join_families(families)
+        del families
+        wide = set_wide(family)
+        summary = summary_of(family, wide, table.name, unit)
+    except BaseException:
+        if spool is not None:
+            spool.close()
+        raise
+    notes = tuple(getattr(table, "notes", ()))  # a folder's second names of one file
+    frame = pd.DataFrame(flagged, columns=["source", "title", "verdict", "failed_checks"])
+    return StreamedBatch(table.name, summary, notes + tuple(problems), len(notes) + count, frame, wide, spool)

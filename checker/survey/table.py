@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import csv
 import io
+import itertools
 import math
 import os
 import stat
@@ -27,7 +28,8 @@ from ..input_files import open_regular, problem_of, read_limited
 
 TABLE_SUFFIXES = {".csv": ",", ".tsv": "\t", ".parquet": None, ".pq": None}
 CLAIM_SUFFIXES = (".yaml", ".yml", ".json")
-# Limits (README, "Limits"). A batch holds about 1.5 KB per claim and some 25 times a
+# Limits (README, "Limits"). A batch held in memory (JSON/HTML output, Parquet, the API; a streamed
+# CSV keeps about 100 bytes a claim) holds about 1.5 KB per claim and some 25 times a
 # table's bytes at its peak (measured), so these keep it within a few gigabytes.
 MAX_TABLE_BYTES = 250_000_000
 MAX_CLAIMS = 1_000_000
@@ -168,48 +170,12 @@ def parse_delimited(text: str, name: str, delimiter: str = ",") -> SurveyTable:
     are checked, where read_csv stops the whole table; and every cell stays
     the text written.
     """
-    handle = io.StringIO(text, newline="")
-    skipped = 0
-    # Comment lines before the header (a note such as "invented data").
-    while True:
-        position = handle.tell()
-        line = handle.readline()
-        if not line:
-            break
-        if line.lstrip().startswith("#") or not line.strip():
-            skipped += 1
-            continue
-        handle.seek(position)
-        break
-    reader = csv.reader(handle, delimiter=delimiter, strict=True)
-    try:
-        header = next(reader, None)
-        if header is None:
-            raise InputFileError(name, "holds no header and no claims",
-                                 "the first row names the fields: title, metric, estimate, ...")
-        if len(header) == 1 and delimiter == "," and (";" in header[0] or "\t" in header[0]):
-            raise InputFileError(name, "has a single column whose name holds ';' or tabs",
-                                 "separate cells with commas (or name a tab-separated table .tsv)",
-                                 line=skipped + 1)
-        rows = []
-        number = 0
-        start = skipped + reader.line_num + 1
-        for cells in reader:
-            line = start
-            start = skipped + reader.line_num + 1
-            if not cells or all(not c.strip() for c in cells):
-                continue  # a blank line is not a claim
-            number += 1
-            if number > MAX_CLAIMS:
-                raise InputFileError(name, f"holds more than {MAX_CLAIMS:,} claims", "split the table",
-                                     line=line)
-            rows.append(Row(number, line, tuple(cells)))
-    except csv.Error as exc:
-        raise InputFileError(name, f"is not a well-formed table ({exc})",
-                             "fix the quoting near that line", line=skipped + reader.line_num) from None
+    # The same reader as the streamed path, on the whole text held in memory.
+    header, rows = _delimited_rows(io.StringIO(text, newline=""), name, delimiter)
+    rows = tuple(rows)
     if not rows:
         raise InputFileError(name, "holds a header but no claims", "give one claim per row below the header")
-    return SurveyTable(name, tuple(header), tuple(rows))
+    return SurveyTable(name, header, rows)
 
 
 def _read_parquet(path: Path) -> SurveyTable:
@@ -278,3 +244,151 @@ def table_from_mappings(mappings: Iterable[Mapping], name: str) -> SurveyTable:
     columns = tuple(header)
     rows = tuple(Row(i + 1, None, tuple(row.get(c, "") for c in columns)) for i, row in enumerate(flat))
     return SurveyTable(name, columns, rows)
+
+
+# --- reading a CSV/TSV table without holding it -----------------------------
+# ``batch`` on a path reads a delimited table three times rather than once into memory, so that
+# its memory does not grow with the table (issue 13): one pass over the bytes (size, NUL, UTF-8),
+# one that parses every row and counts them (so that a malformed table is refused before any work,
+# as parse_delimited does, and the row count is known), and the one that hands rows to the checks.
+
+READ_PIECE = 1 << 20
+_BOM = b"\xef\xbb\xbf"
+
+
+@dataclass(frozen=True)
+class StreamedTable:
+    """A CSV/TSV table read on demand: its header, how many claims it holds,
+    and :meth:`rows`, a fresh iterator over them in order."""
+
+    name: str
+    header: tuple
+    count: int
+    path: str
+    delimiter: str
+
+    def rows(self):
+        with _text_handle(self.path, self.name) as handle:
+            header, rows = _delimited_rows(handle, self.name, self.delimiter)
+            yield from rows
+
+
+def _text_handle(path: str, name: str):
+    handle = open_regular(path, "give a CSV or Parquet table, or a folder of claim files")
+    return io.TextIOWrapper(handle, encoding="utf-8-sig", newline="")
+
+
+def _check_bytes(path: Path) -> None:
+    """The checks :func:`read_table_file` makes on the whole text (size, then
+    NUL, then UTF-8, in that order of precedence), made piece by piece."""
+    import codecs
+
+    allowed = "give a CSV or Parquet table, or a folder of claim files"
+    decoder = codecs.getincrementaldecoder("utf-8")()
+    total, nul, bad, start = 0, False, None, b""
+    with open_regular(path, allowed) as handle:
+        try:
+            while total <= MAX_TABLE_BYTES:
+                piece = handle.read(min(MAX_TABLE_BYTES + 1 - total, READ_PIECE))
+                if not piece:
+                    break
+                if len(start) < 3:
+                    start = (start + piece)[:3]
+                nul = nul or b"\x00" in piece
+                if bad is None:
+                    pending = len(decoder.getstate()[0])
+                    try:
+                        decoder.decode(piece)
+                    except UnicodeDecodeError as exc:
+                        bad = total - pending + exc.start
+                total += len(piece)
+            if bad is None and total <= MAX_TABLE_BYTES:
+                try:
+                    decoder.decode(b"", final=True)
+                except UnicodeDecodeError as exc:
+                    bad = total - len(decoder.getstate()[0]) + exc.start
+        except OSError as exc:
+            raise InputFileError(str(path), problem_of(exc), allowed) from None
+    if total > MAX_TABLE_BYTES:
+        raise InputFileError(str(path), f"is larger than {MAX_TABLE_BYTES:,} bytes", "split the table")
+    if nul:
+        raise InputFileError(str(path), "holds binary data (a NUL byte)", "a CSV table is UTF-8 text")
+    if bad is not None:
+        # decode("utf-8-sig") counts from after a byte-order mark
+        bad -= 3 if start == _BOM and bad >= 3 else 0
+        raise InputFileError(str(path), f"is not UTF-8 text (byte {bad})", "save the table as UTF-8")
+
+
+def _delimited_rows(handle, name: str, delimiter: str):
+    """(header, iterator of Rows) of an open text handle: comment lines and
+    blank lines skipped, each row's line number in the file, and a one-line
+    error for a malformed table (raised as the rows are read)."""
+    skipped = 0
+    first = []
+    while True:
+        line = handle.readline()
+        if not line:
+            break
+        if line.lstrip().startswith("#") or not line.strip():
+            skipped += 1
+            continue
+        first = [line]
+        break
+    reader = csv.reader(itertools.chain(first, handle), delimiter=delimiter, strict=True)
+    try:
+        header = next(reader, None)
+    except csv.Error as exc:
+        raise InputFileError(name, f"is not a well-formed table ({exc})",
+                             "fix the quoting near that line", line=skipped + reader.line_num) from None
+    if header is None:
+        raise InputFileError(name, "holds no header and no claims",
+                             "the first row names the fields: title, metric, estimate, ...")
+    if len(header) == 1 and delimiter == "," and (";" in header[0] or "\t" in header[0]):
+        raise InputFileError(name, "has a single column whose name holds ';' or tabs",
+                             "separate cells with commas (or name a tab-separated table .tsv)",
+                             line=skipped + 1)
+
+    def rows():
+        number = 0
+        start = skipped + reader.line_num + 1
+        try:
+            for cells in reader:
+                line = start
+                start = skipped + reader.line_num + 1
+                if not cells or all(not c.strip() for c in cells):
+                    continue  # a blank line is not a claim
+                number += 1
+                if number > MAX_CLAIMS:
+                    raise InputFileError(name, f"holds more than {MAX_CLAIMS:,} claims", "split the table",
+                                         line=line)
+                yield Row(number, line, tuple(cells))
+        except csv.Error as exc:
+            raise InputFileError(name, f"is not a well-formed table ({exc})",
+                                 "fix the quoting near that line", line=skipped + reader.line_num) from None
+
+    return tuple(header), rows()
+
+
+def stream_source(source: Any) -> StreamedTable | SurveyTable | Folder:
+    """Like :func:`read_source`, but a CSV/TSV path becomes a
+    :class:`StreamedTable` (its rows read again when needed, never all held);
+    every problem :func:`read_source` would raise is raised here, before any
+    claim is checked."""
+    if not isinstance(source, (str, Path)):
+        return read_source(source)
+    path = Path(source)
+    try:
+        regular = stat.S_ISREG(os.stat(path).st_mode)
+    except (OSError, ValueError):
+        regular = False
+    delimiter = TABLE_SUFFIXES.get(path.suffix.lower())
+    if not regular or delimiter is None:
+        return read_source(source)  # folders, Parquet, and every refusal
+    _check_bytes(path)
+    name = str(path)
+    with _text_handle(name, name) as handle:
+        header, rows = _delimited_rows(handle, name, delimiter)
+        count = sum(1 for _ in rows)
+    if not count:
+        raise InputFileError(name, "holds a header but no claims", "give one claim per row below the header")
+    return StreamedTable(name, header, count, name, delimiter)

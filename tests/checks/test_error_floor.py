@@ -102,9 +102,13 @@ def test_mean_needs_the_per_sample_sd(check_claim):
 
 
 def test_skips_name_what_is_missing(check_claim):
+    # With a printed error and no samples the finding says what the error implies (issue 16):
+    # 0.9 x 0.1 / 0.01^2 = 900 samples (binomial variance, common practice).
     (f,) = floor_findings(check_claim, "proportion", "0.9", "stat_error: 0.01\n")
+    assert f.status == "info" and f.message.startswith("Headline: no samples are printed;")
+    assert list(f.details["missing"]) == ["samples"] and f.recomputed == pytest.approx(900)
+    (f,) = floor_findings(check_claim, "mean", "0.9", "stat_error: 0.01\n")
     assert f.status == "skip" and f.message == "Headline: no floor to compare with; needs samples."
-    assert list(f.details["missing"]) == ["samples"]
     (f,) = floor_findings(check_claim, "proportion", "0.9", "")
     assert f.message == "Headline: no floor to compare with; needs stat_error and samples."
 

@@ -38,7 +38,7 @@ def test_a_row_keeps_every_cell_as_printed():
 
 
 def test_quick_path_builds_the_same_claim_as_full_validation():
-    doc, quick = doc_of(["T", "proportion", "0.912", "0.009", "1000", "0.5", "45.8", "", "true", ""])
+    doc, quick = doc_of(["T", "mean", "0.912", "0.009", "1000", "0.5", "45.8", "", "true", ""])
     assert quick
     assert build_claim(doc) == claim_from_document(doc)
     assert build_claim(doc).integer_data is True
