@@ -84,6 +84,10 @@ _CONVENTION_BRIEF = {
     ("error_at", "threshold"): "error taken at the threshold",
     ("method", "sidak"): "the Sidak correction", ("method", "bonferroni"): "the Bonferroni bound",
     ("method", "gross-vitells"): "the Gross-Vitells correction", ("method", "none"): "no correction",
+    ("distribution", "t"): "Student's t, its p given as the equivalent normal sigma",
+    ("distribution", "normal"): "the normal distribution",
+    ("error_reading", "error of the mean"): "the printed error as the error of the mean",
+    ("error_reading", "sd"): "the printed error as the runs' sd (error of the mean = it / sqrt(runs))",
 }
 
 
@@ -119,6 +123,17 @@ ERROR_AT_PHRASES = {
     "estimate": "with the standard error taken at the estimate",
     "threshold": "with the standard error taken at the threshold (under the null)",
 }
+# A mean over runs: the distribution its statistic is referred to, and how its printed error is read.
+RUN_PHRASES = {
+    ("distribution", "normal"): "with the normal distribution in place of Student's t",
+    ("distribution", "t"): "with Student's t on runs - 1 degrees of freedom",
+    ("error_reading", "sd"): "with the printed error taken as the runs' sd (the error of the mean "
+                             "being it divided by sqrt(runs))",
+    ("error_reading", "error of the mean"): "with the printed error taken as the error of the mean",
+    ("sigma", "t statistic"): "with the t statistic printed as the sigma",
+    ("error_reading", "sd times root n"): "with the printed sd being in fact the error of the mean "
+                                          "(the spread of the runs is sqrt(runs) times it)",
+}
 COUNT_KEYS = ("samples", "circuits", "count", "items")
 
 
@@ -142,6 +157,8 @@ def convention_words(reproduced_by: Mapping[str, Any] | None) -> str | None:
             words.append(SYSTEMATICS_PHRASES.get(value, f"with systematics {_one_line(value)}"))
         elif key == "error_at":
             words.append(ERROR_AT_PHRASES.get(value, f"with the error taken at the {_one_line(value)}"))
+        elif key in ("distribution", "error_reading", "sigma") and (key, value) in RUN_PHRASES:
+            words.append(RUN_PHRASES[(key, value)])
         elif key in ("method", "interval_method", "combination"):
             words.append(METHOD_PHRASES.get(value, _one_line(value)))
         elif key == "denominator":

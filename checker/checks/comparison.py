@@ -26,6 +26,7 @@ Q. McNemar, Psychometrika 12, 153 (1947); A. L. Edwards, Psychometrika 13,
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 from typing import Iterator
 
 from ..claim.model import Claim, Reported
@@ -248,11 +249,81 @@ def _without_discordant(claim: Claim, tol: float) -> Iterator[Finding]:
                       reported=printed.value, details=details,
                       **{**about, "field": printed.path, "printed": Shown.of(printed)})
         return
+    # about the printed sigma when there is one, else about the pairing the claim states
+    # (comparison.discordant is what is missing, so it is no field of the claim)
+    where = {"field": printed.path, "printed": Shown.of(printed)} if printed is not None else \
+        {"field": "comparison.paired"}
     yield Finding("warn", f"{base}; please print the discordant counts (items only one of the two got right).",
-                  reported=printed.value if printed else None, details=details, **about)
+                  reported=printed.value if printed else None, details=details, **{**about, **where})
+
+
+def central(claim: Claim, paired: bool) -> dict | None:
+    """The two values, their errors, the difference, its error and its significance at the
+    printed central values, under the stated pairing (McNemar's z for paired proportions with
+    discordant counts, else the errors in quadrature): what the report's difference picture
+    draws and a batch's columns hold.  None when an error is missing."""
+    proportion = claim.metric == "proportion"
+    a, b, c = claim.estimate, claim.baseline, claim.comparison
+
+    def at_centre(value, error, samples):
+        # the printed error, or a proportion's binomial error at its printed value
+        if error is not None and error.value > 0:
+            return error.value
+        if proportion and samples is not None and samples.value > 0:
+            return cmp.proportion_error(value.value, samples.value)
+        return None
+
+    se_a = at_centre(a, claim.stat_error, claim.samples)
+    se_b = at_centre(b.estimate, b.stat_error, b.samples or claim.samples)
+    sided = c.sided if c is not None else "one"
+    n = claim.samples or b.samples
+    if paired and c is not None and c.discordant is not None and n is not None:
+        r = cmp.mcnemar(c.discordant[0].value, c.discordant[1].value, n.value, c.test or "z", sided)
+        d, err = cmp.paired_difference(c.discordant[0].value, c.discordant[1].value, n.value)
+        how = "paired"
+    elif not paired and se_a is not None and se_b is not None and se_a > 0 and se_b > 0:
+        r = cmp.unpaired(a.value, se_a, b.estimate.value, se_b, sided)
+        d, err, how = r.difference, r.error, "unpaired"
+    elif paired:
+        # no discordant counts: the difference is known, its paired error is not
+        r, d, err, how = None, a.value - b.estimate.value, None, "paired, no discordant counts"
+    else:
+        return None
+    sigma = None if r is None else (abs(r.sigma) if sided == "two" else r.sigma)
+    log10_p = None if r is None or not math.isfinite(r.log_p) else r.log_p / LN10
+    if not all(x is None or math.isfinite(x) for x in (d, err, sigma)):
+        return None
+    return {"estimate": a.value, "estimate_error": se_a, "baseline": b.estimate.value, "baseline_error": se_b,
+            "baseline_label": b.label or "baseline", "difference": d, "difference_error": err, "error_from": how,
+            "sigma": sigma, "log10_p": log10_p, "sided": sided}
 
 
 def check(claim: Claim) -> Iterator[Finding]:
+    found = list(_check(claim))
+    # The central values ride on the check's first finding that is not a skip.
+    facts = None
+    if claim.baseline is not None and claim.estimate is not None:
+        facts = central(claim, bool(claim.comparison and claim.comparison.paired))
+    for i, f in enumerate(found):
+        if facts is not None and f.status != "skip":
+            found[i] = replace(f, details={**f.details, "central": facts})
+            break
+    else:
+        c = claim.comparison
+        if facts is not None and facts["sigma"] is not None and (c is None or (c.sigma is None and c.p_value is None)):
+            # Nothing printed to compare with: the difference's significance for information.
+            how = "McNemar's z on the discordant counts" if facts["error_from"] == "paired" else \
+                "both errors in quadrature"
+            found.append(Finding(
+                "info", f"No significance of the difference is printed; {claim.estimate.text} against "
+                f"{claim.baseline.estimate.text} gives a difference of {num(facts['difference'], 3)} ± "
+                f"{num(facts['difference_error'], 3)}, {num(facts['sigma'], 3)} sigma ({how}, "
+                f"{facts['sided']}-sided).", recomputed=facts["sigma"], details={"central": facts},
+                statement="inputs_only"))
+    yield from found
+
+
+def _check(claim: Claim) -> Iterator[Finding]:
     tol = claim.tolerance
     if claim.baseline is None:
         yield Finding("skip", "No baseline is given.", details={"missing": ["baseline"]}, statement="needs_inputs")
@@ -307,5 +378,6 @@ SPEC = CheckSpec(
             question=("Could the authors print the discordant counts (items only one of the two got right)? "
                       "Without them the paired significance can only be bounded.")),
         "needs_inputs": ABOUT_THE_CLAIM,
+        "inputs_only": ABOUT_THE_CLAIM,
     },
 )

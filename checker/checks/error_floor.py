@@ -17,6 +17,7 @@ from typing import Iterator
 
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
+from ..stats.precision import agrees, over_box
 from ..stats.ranges import sampling_error_range, scalar_range
 from ..wording import and_list, num, span_text
 from .common import fewer_samples_than_circuits, flagged_error, skipped_words, above, below, count_for_error, metric_of, model_inputs
@@ -118,6 +119,41 @@ def _circuits_for(variance: float, between: float, scale: float, error: float, s
     return k if math.isfinite(k) else None
 
 
+def _sd_reading(claim: Claim, error: Reported, n: Reported, details: dict) -> Finding | None:
+    """A mean's printed error that equals its sd (the spread of the runs printed as the error
+    of the mean) or sd x sqrt(n) (the value printed as the sd is in fact the error of the mean),
+    and not sd / sqrt(n): a warn naming which.  None when the error reads as the error of the mean,
+    matches neither, or n < 2 (then the readings coincide)."""
+    sd = claim.sd
+    if sd is None or not n.low >= 2 or not sd.value > 0:
+        return None
+    tol = claim.tolerance
+    ranges = {"error of the mean": over_box(lambda s, k: s / math.sqrt(k), [sd.bounds, n.bounds]),
+              "sd": sd.bounds,
+              "sd times root n": over_box(lambda s, k: s * math.sqrt(k), [sd.bounds, n.bounds])}
+    matches = [name for name, r in ranges.items() if agrees(error.bounds, r, tol)]
+    if not matches or "error of the mean" in matches:
+        return None
+    name = matches[0]
+    mean_error = ranges["error of the mean"]
+    facts = {**details, "reading": name, "error_of_the_mean_low": mean_error[0],
+             "error_of_the_mean_high": mean_error[1], "sd_times_root_n_low": ranges["sd times root n"][0],
+             "sd_times_root_n_high": ranges["sd times root n"][1], "tolerance": tol}
+    about = {"field": error.path, "printed": Shown.of(error), "recomputed_range": Span(*mean_error),
+             "tolerance": tol, "reported": error.value, "recomputed": (mean_error[0] + mean_error[1]) / 2}
+    if name == "sd":
+        return Finding("warn", f"Headline: printed stat_error {error.text} equals the printed sd {sd.text}: the "
+                       f"spread of the {n.text} runs printed as the error of the mean, which is sd/sqrt({n.text}) "
+                       f"= {span_text(mean_error)}.", reproduced_by={"error_reading": "sd"}, details=facts,
+                       statement="error_is_sd", **about)
+    return Finding("warn", f"Headline: printed stat_error {error.text} is the printed sd {sd.text} times "
+                   f"sqrt({n.text}) ({span_text(ranges['sd times root n'])}): the value printed as the sd looks "
+                   f"like the error of the mean, and the stat_error like the spread of the runs; read as printed "
+                   f"the error of the mean is {span_text(mean_error)}.",
+                   reproduced_by={"error_reading": "sd times root n"}, details=facts, statement="sd_is_error",
+                   **about)
+
+
 # The per-sample variance each model uses, in words, for the implied count's sentence
 # (the formulas of checker.stats.porter_thomas and checker.stats.binomial).
 VARIANCE_WORDS = {
@@ -204,6 +240,10 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
     if missing:
         yield Finding("skip", f"{what}: the {model.name} model needs {', '.join(missing)}.",
                       details={**details, "missing": missing}, statement="needs_inputs")
+        return
+    reading = _sd_reading(claim, error, n, details) if claim.metric == "mean" else None
+    if reading is not None:
+        yield reading
         return
     model_circuits = circuits if (circuits is not None and model.count_field == "samples") else None
     low, high = _floor(claim, estimate, n, factor, model_circuits)
@@ -344,6 +384,16 @@ SPEC = CheckSpec(
             question=("What besides sampling noise does the statistical error include (drift, "
                       "circuit-to-circuit spread)? A sentence on it would help readers.")),
         "within_floor": Statement(),
+        "error_is_sd": Statement(
+            question=("Is {what} the spread of the runs (their sd) rather than the error of their mean? "
+                      "The error of the mean is the sd divided by the square root of the number of runs."),
+            if_reproduced=("Is {what} the spread of the runs rather than the error of their mean? It is what "
+                           "one gets {reproduced}; the error of the mean is the sd divided by sqrt(runs).")),
+        "sd_is_error": Statement(
+            question=("Is the value printed as the sd in fact the error of the mean, and {what} the spread "
+                      "of the runs? The printed error is the sd times the square root of the number of runs."),
+            if_reproduced=("Is the value printed as the sd in fact the error of the mean, and {what} the "
+                           "spread of the runs? The print follows {reproduced}.")),
         "per_circuit_convention": Statement(),
         "needs_inputs": ABOUT_THE_CLAIM,
         "implied_count": Statement(),

@@ -19,7 +19,7 @@ from typing import Iterator
 
 from ..claim.model import Claim
 from ..report import Finding, Shown, Span
-from ..stats.multiplicity import log_bonferroni, log_gross_vitells, log_sidak
+from ..stats.multiplicity import log_bonferroni, log_gross_vitells, log_sidak, sidak_trials
 from ..stats.precision import agrees, over_box
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
 from ..vocabulary import CORRECTION_NAMES
@@ -110,8 +110,74 @@ def _span(bounds: tuple[float, float]) -> str:
     return f"at least {num(bounds[0])}" if math.isinf(bounds[1]) else span_text(bounds)
 
 
+def _trials_text(n: float) -> str:
+    return "no limit" if math.isinf(n) else num(n, 3)
+
+
+def _implied_trials(claim: Claim) -> Iterator[Finding]:
+    """A claim printing a local and a global significance but no trials: the number of
+    independent trials the pair implies under Sidak's rule, N = log(1 - p_global) /
+    log(1 - p_local), over the printed digits (N falls as the local p falls and rises
+    with the global p, so the box's ends are its ends).  Nothing is compared, so the
+    finding is for information; a global significance above the local one implies fewer
+    than one trial and is flagged."""
+    sig = claim.significance
+    local = _local(claim) if (sig.p_value is not None or sig.sigma is not None) else None
+    if local is None:
+        yield Finding("skip", "A global significance is printed without the local one; needs "
+                      "significance.sigma or p_value to say how many trials they imply.",
+                      details={"missing": ["significance.sigma"]}, statement="needs_inputs")
+        return
+    lp, sigma, origin = local
+    sided = sig.sided
+    g = sig.global_sigma
+    tol = claim.tolerance
+    glp = tuple(sorted(log_p_from_sigma(z, sided) for z in g.bounds))
+    bounded = origin == "printed p_value" and sig.p_value.is_upper_bound
+    if bounded:  # "p < x": the local significance is bounded from below only
+        lp, sigma = (-math.inf, lp[1]), (sigma[0], math.inf)
+    # the fewest trials: the largest local p with the smallest global p; the most: the reverse
+    fewest = sidak_trials(lp[1], glp[0])
+    most = sidak_trials(lp[0], glp[1]) if lp[0] > -math.inf else math.inf
+    # the Bonferroni ratio at the printed central values (from the printed p when there is one)
+    if origin == "printed p_value":
+        lp_mid = math.log(sig.p_value.value) if sig.p_value.value > 0 else lp[1]
+    elif origin == "printed sigma":
+        lp_mid = log_p_from_sigma(sig.sigma.value, sided)
+    else:
+        lp_mid = (lp[0] + lp[1]) / 2 if lp[0] > -math.inf else lp[1]
+    ratio = log_p_from_sigma(g.value, sided) - lp_mid
+    bonferroni = math.exp(ratio) if ratio < 709.0 else math.inf
+    at_centre = sidak_trials(lp_mid, log_p_from_sigma(g.value, sided)) if lp_mid > -math.inf else math.inf
+    details = {"method": "sidak", "sided": sided, "local_from": origin, "local_sigma_low": sigma[0],
+               "local_sigma_high": sigma[1], "global_sigma_low": g.low, "global_sigma_high": g.high,
+               "trials_low": fewest, "trials_high": most if math.isfinite(most) else None,
+               "bonferroni_trials": bonferroni if math.isfinite(bonferroni) else None,
+               "trials_central": at_centre if math.isfinite(at_centre) else None, "tolerance": tol}
+    words = (f"{_trials_text(fewest)}" if math.isclose(fewest, most, rel_tol=1e-9) else
+             f"at least {_trials_text(fewest)}" if math.isinf(most) else
+             f"{_trials_text(fewest)} to {_trials_text(most)}")
+    about = {"field": g.path, "statement": "implied_trials", "printed": Shown.of(g),
+             "recomputed_range": Span(fewest, most), "tolerance": tol, "reported": g.value}
+    pair = (f"The printed local {_span(sigma)} sigma ({origin}) and global {g.text} sigma "
+            f"({sided}-sided)")
+    if most < 1.0 and above(g, sigma[1], tol):
+        yield Finding("fail", f"{pair} imply {words} trials under Sidak's rule: a global significance above "
+                      "the local one, which no look-elsewhere correction gives.", recomputed=most,
+                      details=details, **about)
+        return
+    yield Finding("info", f"{pair} imply {words} effective independent trials under Sidak's rule, "
+                  f"N = log(1 - p_global)/log(1 - p_local) (the Bonferroni ratio p_global/p_local is "
+                  f"{'at least ' if bounded else ''}{_trials_text(bonferroni)}); state the number of configurations examined (trials) so "
+                  "the correction can be checked.",
+                  recomputed=fewest if math.isinf(most) else (fewest + most) / 2, details=details, **about)
+
+
 def check(claim: Claim) -> Iterator[Finding]:
     sig = claim.significance
+    if claim.trials is None and sig.upcrossings is None and sig.global_sigma is not None:
+        yield from _implied_trials(claim)
+        return
     if claim.trials is None and sig.upcrossings is None:
         yield Finding("skip", "No look-elsewhere correction to check; needs trials or upcrossings.",
                       details={"missing": ["trials", "upcrossings"]}, statement="needs_inputs")
@@ -195,6 +261,10 @@ SPEC = CheckSpec(
             question=("How many configurations were examined before this one was reported, and does the "
                       "claim still pass once the significance is corrected for them?")),
         "global_only": ABOUT_THE_CLAIM,
+        "implied_trials": Statement(
+            question=("How many configurations (or how wide a scan) does the global significance count? "
+                      "The printed local and global values imply the number of trials given here; a global "
+                      "value above the local one needs an explanation.")),
         "needs_inputs": ABOUT_THE_CLAIM,
     },
 )

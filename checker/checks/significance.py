@@ -23,11 +23,12 @@ import math
 from dataclasses import dataclass, replace
 from typing import Iterator
 
-from ..claim.model import Claim
+from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats.binomial import binomial_variance, heavy_output_sigma
 from ..stats.interval import sigma_from_interval
 from ..stats.precision import agrees, agrees_log, over_box
+from ..stats import student_t
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
 from ..vocabulary import convention_text
@@ -42,9 +43,19 @@ def _log10_span(log_bounds_natural: tuple[float, float]) -> Span:
     return Span(log_bounds_natural[0] / LN10, log_bounds_natural[1] / LN10, "log10")
 
 KEYS = ("sided", "systematics", "error_at")
+# A mean over runs adds two: the distribution of (mean - threshold) / error ("t" or "normal")
+# and how the printed stat_error is read ("error of the mean", or "sd": the runs' spread,
+# whose error of the mean is stat_error / sqrt(runs)).
+RUN_KEYS = ("distribution", "error_reading")
 # What the claim leaves unsaid when it writes no such field, in the words of a note.
 UNSTATED_WORDS = {"sided": "sidedness", "systematics": "treatment of the systematic error",
-                  "error_at": "point at which the error is taken"}
+                  "error_at": "point at which the error is taken",
+                  "distribution": "distribution of the statistic", "error_reading": "reading of the printed error"}
+# Up to this many runs a mean's statistic is referred to Student's t on runs - 1 degrees of
+# freedom, not the normal: below about 30 the two differ by more than a few per cent in the
+# critical value at 2 sigma, which is the usual rule of thumb (common practice).  Above it the
+# normal is the stated distribution and the t an alternative that may reproduce a print.
+FEW_RUNS = 30
 
 
 @dataclass(frozen=True)
@@ -54,15 +65,41 @@ class Recomputed:
     log_p: tuple[float, float]
 
 
+def runs_of(claim: Claim) -> Reported | None:
+    """The runs behind a mean (metric ``mean`` with ``samples`` of at least 2), else None."""
+    if claim.metric == "mean" and claim.samples is not None and claim.samples.value >= 2:
+        return claim.samples
+    return None
+
+
+def few_runs(claim: Claim) -> bool:
+    """A mean over at most :data:`FEW_RUNS` runs: its statistic is referred to Student's t."""
+    runs = runs_of(claim)
+    return runs is not None and runs.value <= FEW_RUNS
+
+
 def stated_convention(claim: Claim) -> dict:
     s = claim.significance
-    return {"sided": s.sided, "systematics": s.systematics, "error_at": s.error_at}
+    conv = {"sided": s.sided, "systematics": s.systematics, "error_at": s.error_at}
+    if runs_of(claim) is not None:
+        conv["distribution"] = "t" if few_runs(claim) else "normal"
+        if claim.stat_error is not None:
+            conv["error_reading"] = "error of the mean"
+    return conv
+
+
+def keys_of(conv: dict) -> tuple[str, ...]:
+    return KEYS + tuple(k for k in RUN_KEYS if k in conv)
 
 
 def statistical_error(claim: Claim) -> tuple[tuple[float, float] | None, str]:
     """The statistical error's interval and where it came from."""
     if claim.stat_error is not None:
         return claim.stat_error.bounds, "stat_error"
+    runs = runs_of(claim)
+    if runs is not None and claim.sd is not None and claim.sd.value > 0:
+        # A mean over runs that prints only the runs' spread: its error is sd / sqrt(runs).
+        return over_box(lambda sd, n: sd / math.sqrt(n), [claim.sd.bounds, runs.bounds]), "sd"
     if claim.interval is not None:
         iv = claim.interval
         box = over_box(lambda lo, hi: sigma_from_interval(lo, hi, iv.level.value),
@@ -83,9 +120,14 @@ def _conventions(claim: Claim) -> list[dict]:
         error_at.append("threshold")
     options = [dict(zip(KEYS, combo)) for combo in
                itertools.product(("one", "two"), systematics, error_at)]
+    if "distribution" in stated:
+        readings = ("error of the mean", "sd") if "error_reading" in stated else (None,)
+        options = [{**o, "distribution": d, **({"error_reading": r} if r else {})}
+                   for o in options for d in ("t", "normal") for r in readings]
     if stated not in options:
         options.append(stated)
-    options.sort(key=lambda c: sum(c[k] != stated[k] for k in KEYS))
+    keys = keys_of(stated)
+    options.sort(key=lambda c: sum(c.get(k) != stated.get(k) for k in keys))
     return options
 
 
@@ -103,6 +145,9 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         model = metric_of(claim)
         inputs = model_inputs(claim)
         stat = over_box(lambda count: model.standard_error(t, count, inputs), [n.bounds])
+    elif convention.get("error_reading") == "sd":
+        # The printed stat_error read as the runs' spread: the error of the mean is it / sqrt(runs).
+        stat = over_box(lambda s, n: s / math.sqrt(n), [claim.stat_error.bounds, claim.samples.bounds])
     else:
         stat, _ = statistical_error(claim)
         if stat is None and per_circuit(claim):
@@ -112,6 +157,9 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
             return None if floor is None else _recompute_at_floor(claim, convention, syst, *floor)
     if not (math.isfinite(stat[0]) and stat[0] > 0):
         return None
+    df = claim.samples.value - 1.0 if convention.get("distribution") == "t" else None
+    if df is not None and systematics == "marginalized":
+        return None  # the Cousins-Highland average is defined here for a normal statistic only
 
     def z_of(e, s, ss):
         # linear: the systematic added to the statistical error (stat + syst), a common slip
@@ -124,10 +172,17 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
             if sided == "two":
                 return min(0.0, math.log(2.0) + log_p_marginalized(abs(d), s, ss))
             return log_p_marginalized(d, s, ss)
+        if df is not None:
+            return student_t.log_p(z_of(e, s, ss), df, sided)
         return log_p_from_sigma(z_of(e, s, ss), sided)
 
     boxes = [claim.estimate.bounds, stat, syst]
     log_p = over_box(log_p_of, boxes)
+    if df is not None:
+        # The t statistic's p given as the equivalent normal sigma, Phi^-1(1 - p) (one-sided)
+        # or Phi^-1(1 - p/2) (two-sided): monotone in t, so the box's ends are the p's ends.
+        sigma = tuple(sorted(sigma_from_log_p(lp, sided) for lp in log_p))
+        return Recomputed(convention, sigma, log_p)
     if systematics == "marginalized":
         sigma = tuple(sorted(sigma_from_log_p(lp, sided) for lp in log_p))
         if sided == "one" and claim.estimate.value < t:
@@ -294,6 +349,8 @@ def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
         stat = sigma_from_interval(iv.low.value, iv.high.value, iv.level.value)
     elif per_circuit(claim):
         stat = math.sqrt(binomial_variance(claim.estimate.value) / claim.circuits.value)
+    elif runs_of(claim) is not None and claim.sd is not None:
+        stat = claim.sd.value / math.sqrt(claim.samples.value)
     else:
         return None
     if stat is None or not (math.isfinite(stat) and stat > 0):
@@ -306,6 +363,9 @@ def central(claim: Claim, convention: dict) -> tuple[float, float] | None:
     if not math.isfinite(z):
         return None
     sided = convention["sided"]
+    if convention.get("distribution") == "t" and convention["systematics"] != "marginalized":
+        log_p = student_t.log_p(z, claim.samples.value - 1.0, sided)
+        return sigma_from_log_p(log_p, sided), log_p
     return (abs(z) if sided == "two" else z), log_p_from_sigma(abs(z) if sided == "two" else z, sided)
 
 
@@ -332,7 +392,7 @@ class _Lazy:
 
 
 def _differs(conv: dict, stated: dict) -> dict:
-    return {k: conv[k] for k in KEYS if conv[k] != stated[k]}
+    return {k: conv[k] for k in keys_of(stated) if conv.get(k) != stated.get(k)}
 
 
 def _p_skipped(p, statement: str) -> Finding:
@@ -373,6 +433,17 @@ def _sigma_vs_p(claim: Claim, tol: float) -> Iterator[Finding]:
                       reported=p.value, recomputed=finite_or_none(math.exp(stated[1])),
                       reproduced_by={"sided": other}, details=details, **about)
         return
+    if few_runs(claim):
+        # A mean over few runs may print its t statistic as "sigma" beside the t test's p.
+        df = claim.samples.value - 1.0
+        as_t = over_box(lambda t: student_t.log_p(t, df, sig.sided), [sigma.bounds])
+        if agrees_log(printed_log, as_t, tol):
+            yield Finding("warn", f"{base}, but the printed p = {p.text} is the p of a t statistic of "
+                          f"{sigma.text} on {num(df)} degrees of freedom: the printed sigma is the t statistic, "
+                          "not the equivalent normal significance.",
+                          reported=p.value, recomputed=finite_or_none(math.exp(stated[1])),
+                          reproduced_by={"sigma": "t statistic"}, details=details, **about)
+            return
     inverse = over_box(lambda lp: sigma_from_log_p(lp, sig.sided), [printed_log]) if printed_log[0] > -math.inf \
         else (sigma_from_log_p(printed_log[1], sig.sided), math.inf)
     yield Finding("fail", f"{base}, but the printed p = {p.text}, which would be "
@@ -486,6 +557,13 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     conv_words = convention_text({**stated, "systematics": "none"} if unprinted else stated)
     if unprinted:
         conv_words += f"; the claim states systematics: {stated['systematics']} but prints no syst_error"
+    if "distribution" in stated and stated["distribution"] == "t":
+        conv_words = conv_words.replace("Student's t", f"Student's t on {num(claim.samples.value - 1)} degrees of "
+                                        "freedom", 1)
+    # With few runs the t is not a convention but the distribution of the statistic, and the
+    # printed error is the error of the mean: a print that follows only otherwise is flagged.
+    stated_keys = set(sig.stated) | ({"distribution"} if few_runs(claim) else set()) \
+        | ({"error_reading"} if "error_reading" in stated else set())
     # Whether the systematic error widened the null (the HTML picture draws it so).
     syst_in = stated["systematics"] != "none" and claim.syst_error is not None and claim.syst_error.value > 0
     if statistical_error(claim)[0] is None and stated["error_at"] == "estimate" and per_circuit(claim):
@@ -515,7 +593,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                        sigma_mid, stated, conv_words,
                        {**details, "quantity": "sigma"},
                        {"field": sig.sigma.path, "statement": "sigma_vs_inputs", "printed": Shown.of(sig.sigma),
-                        "recomputed_range": Span(*mine.sigma), "tolerance": tol}, sig.stated)
+                        "recomputed_range": Span(*mine.sigma), "tolerance": tol}, stated_keys)
     if sig.p_value is not None and not (is_probability(sig.p_value) and not printed_zero(sig.p_value)):
         yield _p_skipped(sig.p_value, "p_vs_inputs")
     elif sig.p_value is not None and not floor:
@@ -526,7 +604,7 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
                        p_mid, stated, conv_words,
                        {**details, "quantity": "p_value"},
                        {"field": sig.p_value.path, "statement": "p_vs_inputs", "printed": Shown.of(sig.p_value),
-                        "recomputed_range": _log10_span(mine.log_p), "tolerance": tol}, sig.stated)
+                        "recomputed_range": _log10_span(mine.log_p), "tolerance": tol}, stated_keys)
     if sig.sigma is None and sig.p_value is None:
         yield Finding("info", f"No significance is printed; estimate, threshold and errors give "
                       f"{span_text(mine.sigma)} sigma, p = {p_range_text(mine.log_p)} ({conv_words}).",

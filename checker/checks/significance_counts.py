@@ -17,6 +17,7 @@ R. D. Cousins, J. T. Linnemann and J. Tucker, Nucl. Instrum. Meth. A 595, 480 (2
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 from typing import Iterator
 
 from ..claim.model import Claim
@@ -135,9 +136,35 @@ def _yield(claim: Claim, tol: float) -> Iterator[Finding]:
                       f"{n.text} - {b.text} = {span_text(s)}.", reported=est.value, recomputed=sum(s) / 2, **about)
 
 
+def central(claim: Claim) -> tuple[float, float] | None:
+    """z and natural log p at the printed central values by the first correct formula (the exact
+    Poisson tail without a background error, the profile likelihood with one): the numbers a
+    survey adjusts across its claims."""
+    has_error = claim.background_error is not None and claim.background_error.value > 0
+    method = "profile" if has_error else "exact"
+    r = counts.significance(method, claim.observed.value, claim.background.value,
+                            claim.background_error.value if has_error else 0.0)
+    sided = claim.significance.sided
+    log_p = r.log_p_sided(sided)
+    sigma = abs(r.sigma) if sided == "two" else r.sigma
+    return (sigma, log_p) if math.isfinite(sigma) and math.isfinite(log_p) else None
+
+
 def check(claim: Claim, sigma_vs_p) -> Iterator[Finding]:
     """The counting-experiment findings; ``sigma_vs_p`` is the significance
-    check's own sigma <-> p comparison, which holds for counts unchanged."""
+    check's own sigma <-> p comparison, which holds for counts unchanged.  The first
+    finding that is not a skip carries the central z and log10 p (``sigma_central``,
+    ``log10_p_central``) as the threshold claims' findings do."""
+    found = list(_check(claim, sigma_vs_p))
+    at = central(claim) if claim.observed is not None and claim.background is not None else None
+    for i, f in enumerate(found):
+        if at is not None and f.status != "skip":
+            found[i] = replace(f, details={**f.details, "sigma_central": at[0], "log10_p_central": at[1] / LN10})
+            break
+    yield from found
+
+
+def _check(claim: Claim, sigma_vs_p) -> Iterator[Finding]:
     tol = claim.tolerance
     yield from sigma_vs_p(claim, tol)
     yield from _yield(claim, tol)

@@ -73,6 +73,19 @@ def add_parser(sub) -> None:
     p.add_argument("--qubits", type=_count, metavar="Q",
                    help="linear-xeb, log-xeb: qubits, for the exact finite-D variance and the circuit term")
     p.add_argument("--sd", type=_positive, metavar="SD", help="metric mean: the per-sample standard deviation")
+    # Other kinds of claim (checker/commands/plan_kinds.py, issue 14).
+    p.add_argument("--baseline", type=_value, metavar="B",
+                   help="proportion: the baseline to beat; plans the items needed to detect estimate > baseline")
+    p.add_argument("--paired", action="store_true",
+                   help="with --baseline: both are scored on the same items (McNemar's z; needs --discordance)")
+    p.add_argument("--discordance", type=_value, metavar="R",
+                   help="with --paired: the share of items you expect the two to disagree on (one right, one wrong)")
+    p.add_argument("--runs", action="store_true",
+                   help="metric mean: the samples are runs (seeds) and the test is Student's t on runs - 1 "
+                        "degrees of freedom")
+    p.add_argument("--background", type=_positive, metavar="B",
+                   help="metric counts: the expected background per unit of exposure (--estimate is the "
+                        "expected signal per unit of exposure); plans the exposure")
     p.add_argument("--json", action="store_true", help="print the plan as JSON")
 
 
@@ -87,6 +100,17 @@ def run(args, stdout, stderr) -> int:
     from ..stats.planning import pass_probability, plan_experiment, smallest_detectable
     from ..stats.porter_thomas import dimension_of
 
+    from .plan_kinds import kind_of, run_kind
+
+    kind = kind_of(args)
+    if kind is not None:
+        return run_kind(kind, args, stdout)
+    for option, given in (("--paired", args.paired), ("--discordance", args.discordance is not None),
+                          ("--runs", args.runs), ("--background", args.background is not None)):
+        if given:
+            _fail(option, f"does not apply to a {args.metric} plan without "
+                  + ("--baseline" if option in ("--paired", "--discordance") else
+                     "--metric mean" if option == "--runs" else "--metric counts"), "leave it out")
     model = METRICS[args.metric]
     if args.fidelity is None:  # not required=True in argparse: --fidelity, the hidden first name, also sets it
         _fail("--estimate", "is needed: the value you expect to measure", "give --estimate F (80% reads as 0.8)")

@@ -312,6 +312,57 @@ def forest_svg(parts: Sequence[tuple[str, float, float | None]],
         return _save(fig, "forest", "Forest plot: the parts, each combination method and the printed combination")
 
 
+# --- comparison with a baseline -------------------------------------------------------
+
+def comparison_svg(estimate: tuple[str, float, float | None], baseline: tuple[str, float, float | None],
+                   difference: tuple[float, float | None], printed: tuple[float, float | None] | None = None,
+                   difference_label: str = "recomputed") -> str:
+    """Both estimates with their error bars (left) and their difference with its error
+    and the printed one, beside a line at zero (right).
+
+    Parameters
+    ----------
+    estimate, baseline : (label, value, standard error or None)
+    difference : (estimate - baseline, its standard error or None), as the check found them
+    printed : (printed difference, printed error or None), optional
+    difference_label : the recomputed difference's row label (which error it carries)
+    """
+    values = [estimate[1], baseline[1], difference[0]] + ([printed[0]] if printed else [])
+    if not _finite(*values):
+        raise ValueError("comparison_svg needs finite estimates and difference")
+    with _drawing("comparison", 2.5) as fig:
+        left, right = fig.subplots(1, 2, gridspec_kw={"width_ratios": [1.15, 1.0]})
+        for y, (label, value, err), colour, marker in ((2, estimate, INK, "o"), (1, baseline, MUTED, "s")):
+            left.errorbar([value], [y], xerr=None if err is None else [[err], [err]], fmt=marker, color=colour,
+                          markersize=7, capsize=4, linewidth=1.6)
+        left.set_yticks([2, 1], [_plain(estimate[0]), _plain(baseline[0])])
+        left.set_ylim(0.4, 2.6)
+        _value_axis(left, "value ± one standard error")
+        rows = [(1.0 if printed else 1.5, _plain(difference_label), difference, ACCENT, "D")]
+        if printed:
+            rows.append((2.0, "as printed", printed, OCHRE, "s"))
+        for y, _, (value, err), colour, marker in rows:
+            right.errorbar([value], [y], xerr=None if err is None else [[err], [err]], fmt=marker, color=colour,
+                           markersize=7, capsize=4, linewidth=1.6)
+        right.axvline(0.0, color=BRICK, linewidth=1.2, linestyle=(0, (4, 3)))
+        right.set_yticks([y for y, *_ in rows], [label for _, label, *_ in rows])
+        right.set_ylim(0.4, 2.6)
+        # zero and every bar in view, with a margin
+        lo = min([0.0] + [v - (e or 0.0) for _, _, (v, e), *_ in rows])
+        hi = max([0.0] + [v + (e or 0.0) for _, _, (v, e), *_ in rows])
+        pad = 0.12 * (hi - lo) if hi > lo else 1.0
+        right.set_xlim(lo - pad, hi + pad)
+        _value_axis(right, "difference ± one standard error")
+        for ax in (left, right):
+            _no_math(ax.get_yticklabels())
+            ax.tick_params(axis="y", length=0)
+            ax.spines["left"].set_visible(False)
+            ax.grid(axis="x", color=FAINT, linewidth=0.6)
+            ax.set_axisbelow(True)
+        return _save(fig, "comparison", "The estimate and the baseline with their errors, and their "
+                     "difference with its error beside zero")
+
+
 # --- error budget --------------------------------------------------------------------
 
 def budget_svg(components: Sequence[tuple[str, float]], predicted: float,

@@ -27,7 +27,8 @@ from .notes import (Point, SharedPoint, field_words, is_plain_number, one_line, 
 from .page import figure_html, html_page, status_mark, table_html, tile, verdict_panel
 
 _GROUPS = (("significance.", "Significance"), ("combination.", "Combination"),
-           ("extrapolation.", "Extrapolation"))
+           ("extrapolation.", "Extrapolation"), ("baseline.", "Baseline"), ("comparison.", "Comparison"),
+           ("counts_table.", "Counts table"), ("rates.", "Rates"))
 
 
 def _claim_section(claim: Claim) -> str:
@@ -265,8 +266,47 @@ def _budget_figure(report: Report, claim: Claim) -> str | None:
                        table_html(["component", "count", "error", "surviving"], rows, numeric=(1, 2, 3)))
 
 
+def _comparison_figure(report: Report, claim: Claim) -> str | None:
+    """Both estimates with their errors and the difference with its error, from the central
+    values the comparison check found (its first finding's ``details["central"]``)."""
+    from .figures import comparison_svg
+
+    d = next((f.details["central"] for f in _findings(report, "comparison")
+              if isinstance(f.details.get("central"), Mapping)), None)
+    if d is None or not all(_is_num(d.get(k)) for k in ("estimate", "baseline", "difference")):
+        return None
+
+    def err(key):
+        return d[key] if _is_num(d.get(key)) else None
+
+    c = claim.comparison
+    printed = None
+    if c is not None and c.difference is not None:
+        printed = (c.difference.value, c.difference_error.value if c.difference_error is not None else None)
+    how = one_line(d.get("error_from", ""))
+    svg = comparison_svg(("estimate", d["estimate"], err("estimate_error")),
+                         (one_line(d.get("baseline_label", "baseline")), d["baseline"], err("baseline_error")),
+                         (d["difference"], err("difference_error")), printed, f"recomputed ({how})")
+    rows = [["estimate", claim.estimate.text, num(err("estimate_error"))],
+            [one_line(d.get("baseline_label", "baseline")), claim.baseline.estimate.text, num(err("baseline_error"))],
+            [f"difference, recomputed ({how})", num(d["difference"]), num(err("difference_error"))]]
+    if printed is not None:
+        rows.append(["difference, as printed", c.difference.text,
+                     c.difference_error.text if c.difference_error is not None else ""])
+    if _is_num(d.get("sigma")):
+        rows.append(["sigma of the difference, recomputed", num(d["sigma"]), ""])
+    caption = ("Left: the estimate and the baseline, each with one standard error (printed, or for a "
+               "proportion from its samples). Right: their difference with its error as recomputed "
+               + ("from the discordant counts" if how == "paired" else "with both errors in quadrature"
+                  if how == "unpaired" else "(no error without discordant counts)")
+               + (", the printed difference above it" if printed else "") + ", and a dashed line at zero.")
+    return figure_html(svg, caption, "figure-comparison",
+                       table_html(["quantity", "value", "standard error"], rows, numeric=(1, 2)))
+
+
 _FIGURES = (
     ("The significance picture", "section-significance", _significance_figure),
+    ("The estimate against its baseline", "section-comparison", _comparison_figure),
     ("The parts and their combination", "section-forest", _forest_figure),
     ("Error budget against the measured value", "section-budget", _budget_figure),
 )

@@ -62,6 +62,19 @@ def printed_numbers(claim: Claim) -> list[Reported]:
     for item in claim.error_budget:
         add(item.count, item.error, item.error_sd)
     add(claim.items)
+    add(claim.observed, claim.background, claim.background_error)
+    if claim.baseline is not None:
+        add(claim.baseline.estimate, claim.baseline.stat_error, claim.baseline.samples)
+    c = claim.comparison
+    if c is not None:
+        add(*(c.discordant or ()), c.difference, c.difference_error, c.sigma, c.p_value)
+    t = claim.counts_table
+    if t is not None:
+        add(t.true_positive, t.false_positive, t.false_negative, t.true_negative)
+    for rate in claim.rates:
+        add(rate.value)
+        if rate.interval is not None:
+            add(rate.interval.low, rate.interval.high, rate.interval.level)
     return found
 
 

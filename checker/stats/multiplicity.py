@@ -41,6 +41,39 @@ def _log1mexp(log_x: float) -> float:
     return math.log1p(-math.exp(log_x))
 
 
+def sidak_trials(log_p_local: float, log_p_global: float) -> float:
+    """The number of independent trials N that turns a local p into a global one under
+    Sidak's rule, the inverse of :func:`log_sidak`:
+
+        N = log(1 - p_global) / log(1 - p_local),
+
+    each logarithm of 1 - p taken from log p (log1p for small p, expm1 near 1), so that
+    N = p_global / p_local holds to double precision when both are tiny and a local
+    p = 1e-300 still gives a finite N.  N < 1 when the global p is below the local one;
+    +inf when the global p is 1 (nothing significant remains).
+
+    Parameters
+    ----------
+    log_p_local, log_p_global : float
+        Natural logs of the two p-values, each <= 0.
+    """
+    if log_p_local > 0 or log_p_global > 0:
+        raise ValueError(f"log p must be <= 0, got {log_p_local}, {log_p_global}")
+    if log_p_local == 0.0:
+        return 1.0 if log_p_global == 0.0 else 0.0  # a local p of 1: one trial or none reproduces it
+    if log_p_global == 0.0:
+        return math.inf
+    log_q_local = _log1mexp(log_p_local)    # log(1 - p_local) < 0
+    log_q_global = _log1mexp(log_p_global)
+    if log_q_local == 0.0:
+        # p_local below the smallest double: -log(1 - p) = p to within p, so
+        # log N = log(-log(1 - p_global)) - log p_local (and log p_global - log p_local when
+        # p_global underflows too).
+        log_n = (log_p_global if log_q_global == 0.0 else math.log(-log_q_global)) - log_p_local
+        return math.exp(log_n) if log_n < 709.0 else math.inf
+    return log_q_global / log_q_local
+
+
 def log_bonferroni(log_p: float, trials: float) -> float:
     """log of min(1, N p)."""
     return min(0.0, math.log(trials) + log_p)

@@ -65,6 +65,14 @@ class ClaimRecord:
     sigma_global: float = NAN
     log_p_global: float = NAN
     two_sided: bool = False
+    # The kind of claim and, for a comparison, the difference with its error and significance at
+    # the printed central values; for local and global significances alone, the trials they imply.
+    kind: str = ""
+    difference: float = NAN
+    difference_error: float = NAN
+    sigma_difference: float = NAN
+    log10_p_difference: float = NAN
+    implied_trials: float = NAN
     problem: str = ""
 
 
@@ -73,7 +81,8 @@ COLUMNS = ("source", "title", "verdict", "failed_checks", "sigma_recomputed", "p
            "p_holm", "p_bh", "required_sigma", "clears_required", "clears_holm", "clears_bh",
            "sigma_holm", "sigma_bh", "look_elsewhere", "sigma_global", "p_global", "log10_p_global",
            "sigma_printed", "p_printed", "log10_p_printed", "log10_p_recomputed",
-           "log10_p_holm", "log10_p_bh", "metric", "claim_source",
+           "log10_p_holm", "log10_p_bh", "kind", "difference_recomputed", "difference_error_recomputed",
+           "sigma_difference", "log10_p_difference", "implied_trials", "metric", "claim_source",
            "flagged", "noted", "agree", "not_checked", "for_information", "problem")
 
 
@@ -157,6 +166,41 @@ def global_significance(claim, sigma: float, log_p: float) -> tuple[str, float, 
     return method, sigma_from_log_p(log_g, sig.sided), log_g
 
 
+def claim_kind(claim) -> str:
+    """``comparison`` (a baseline), ``counts``, ``runs`` (a mean over a few runs, tested with
+    Student's t), ``significances`` (no estimate: local and global significances only) or
+    ``threshold`` (an estimate against a threshold)."""
+    from ..checks.significance import few_runs
+
+    if claim.baseline is not None:
+        return "comparison"
+    if claim.metric == "counts":
+        return "counts"
+    if few_runs(claim):
+        return "runs"
+    if claim.estimate is None:
+        return "significances"
+    return "threshold"
+
+
+def kind_columns(report) -> dict:
+    """The comparison's central difference and the implied trials, read from the findings."""
+    out = {}
+    for f in report.findings:
+        d = f.details
+        if f.check == "comparison" and isinstance(d.get("central"), dict) and "difference" not in out:
+            c = d["central"]
+            out.update(difference=c["difference"], difference_error=_or_nan(c.get("difference_error")),
+                       sigma_difference=_or_nan(c.get("sigma")), log10_p_difference=_or_nan(c.get("log10_p")))
+        elif f.check == "look-elsewhere" and f.statement == "implied_trials" and "implied_trials" not in out:
+            out["implied_trials"] = _or_nan(d.get("trials_central"))  # at the printed central values
+    return out
+
+
+def _or_nan(x) -> float:
+    return NAN if x is None else float(x)
+
+
 def claim_record(claim, report, source: str) -> ClaimRecord:
     """The record of one checked claim: its verdict, counts and recomputed significance."""
     sig = claim.significance
@@ -171,7 +215,8 @@ def claim_record(claim, report, source: str) -> ClaimRecord:
         sigma_printed=sig.sigma.text if sig.sigma else "", p_printed=sig.p_value.text if sig.p_value else "",
         log10_p_printed=_log10_printed(sig.p_value),
         required_sigma=_value(sig.required_sigma), sigma=sigma, log_p=log_p, look_elsewhere=method,
-        sigma_global=sigma_global, log_p_global=log_p_global, two_sided=sig.sided == "two")
+        sigma_global=sigma_global, log_p_global=log_p_global, two_sided=sig.sided == "two",
+        kind=claim_kind(claim), **kind_columns(report))
 
 
 def unusable_record(source: str, problem: str, title: str = "") -> ClaimRecord:
@@ -454,7 +499,12 @@ def frame_of(records: list, wide: SetWide):
         # log10 p beside every p: exact where p itself underflows to 0 (issue 16)
         "log10_p_printed": np.asarray(col["log10_p_printed"], dtype=float),
         "log10_p_recomputed": log_p / LN10, "log10_p_holm": adjusted.log_p_holm / LN10,
-        "log10_p_bh": adjusted.log_p_bh / LN10, "metric": col["metric"],
+        "log10_p_bh": adjusted.log_p_bh / LN10, "kind": col["kind"],
+        "difference_recomputed": np.asarray(col["difference"], dtype=float),
+        "difference_error_recomputed": np.asarray(col["difference_error"], dtype=float),
+        "sigma_difference": np.asarray(col["sigma_difference"], dtype=float),
+        "log10_p_difference": np.asarray(col["log10_p_difference"], dtype=float),
+        "implied_trials": np.asarray(col["implied_trials"], dtype=float), "metric": col["metric"],
         "claim_source": col["claim_source"],
         "flagged": np.asarray(col["flagged"], dtype=int), "noted": np.asarray(col["noted"], dtype=int),
         "agree": np.asarray(col["agree"], dtype=int), "not_checked": np.asarray(col["not_checked"], dtype=int),

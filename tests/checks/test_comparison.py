@@ -95,3 +95,25 @@ def test_paired_without_discordant_counts_gives_the_range_of_sigma():
 
 def test_no_baseline_is_a_skip():
     assert [f.status for f in findings("title: t\nmetric: mean\nestimate: 1\n")] == ["skip"]
+
+
+def test_nothing_printed_gives_the_difference_for_information():
+    # 0.913 +- 0.008 against 0.890 +- 0.009 (unpaired): z = 0.023 / hypot(0.008, 0.009) = 1.912
+    # (by hand: hypot = 0.012042), p = norm.sf(1.912) (scipy.stats.norm.sf)
+    (f,) = findings(UNPAIRED)
+    assert f.status == "info" and f.statement == "inputs_only"
+    c = f.details["central"]
+    assert f"{math.hypot(0.008, 0.009):.6f}" == "0.012042"
+    assert c["sigma"] == pytest.approx(0.023 / math.hypot(0.008, 0.009), rel=1e-12)
+    assert 10 ** c["log10_p"] == pytest.approx(stats.norm.sf(0.023 / math.hypot(0.008, 0.009)), rel=1e-9)
+    assert "1.91 sigma" in f.message
+
+
+def test_central_values_ride_on_the_first_finding():
+    # paired with discordant 58 and 30 of 1200: d = 28 / 1200, McNemar's z = 28 / sqrt(88) = 2.985
+    text = PAIRED + "comparison: {paired: true, discordant: [58, 30], sigma: 2.98}\n"
+    found = [f for f in findings(text) if "central" in f.details]
+    assert len(found) == 1
+    c = found[0].details["central"]
+    assert c["error_from"] == "paired" and c["sigma"] == pytest.approx(28 / math.sqrt(88), rel=1e-12)
+    assert c["difference"] == pytest.approx(28 / 1200, rel=1e-12)

@@ -245,3 +245,39 @@ def test_a_small_shortfall_within_what_few_circuits_can_estimate_passes(check_cl
     (f,) = floor_findings(check_claim, "linear-xeb", "0.606",
                           "qubits: 12\nstat_error: 0.021\nsamples: 4000\ncircuits: 8\n")
     assert f.status == "pass" and f.details["floor_plausible_low"] < 0.0215 * 1.02 and 0.021 < f.details["floor_low"]
+
+
+# --- a mean over runs: which error was printed (issue 14) ---------------------------------
+# Readings of a printed error for sd 1.2 over 5 runs (checker.stats.runs.error_readings, by hand):
+# error of the mean 1.2 / sqrt(5) = 0.5367, the sd itself 1.2, sd x sqrt(5) = 2.683.
+
+def test_a_printed_error_equal_to_the_sd_is_named(check_claim):
+    (f,) = floor_findings(check_claim, "mean", "71.3", "sd: 1.2\nstat_error: 1.2\nsamples: 5\n")
+    assert f.status == "warn" and f.statement == "error_is_sd"
+    assert dict(f.reproduced_by) == {"error_reading": "sd"}
+    # Pinned: the slip named in words, with the error of the mean it should have been
+    assert f.message == ("Headline: printed stat_error 1.2 equals the printed sd 1.2: the spread of the 5 runs "
+                         "printed as the error of the mean, which is sd/sqrt(5) = 0.514 to 0.559.")
+    assert f.details["error_of_the_mean_low"] < 1.2 / math.sqrt(5) < f.details["error_of_the_mean_high"]
+
+
+def test_a_printed_error_of_sd_times_root_n_is_named(check_claim):
+    (f,) = floor_findings(check_claim, "mean", "71.3", "sd: 1.2\nstat_error: 2.68\nsamples: 5\n")
+    assert f.status == "warn" and f.statement == "sd_is_error"
+    assert dict(f.reproduced_by) == {"error_reading": "sd times root n"}
+
+
+def test_the_error_of_the_mean_passes(check_claim):
+    (f,) = floor_findings(check_claim, "mean", "71.3", "sd: 1.2\nstat_error: 0.537\nsamples: 5\n")
+    assert f.status == "pass" and f.statement == "within_floor"
+
+
+@pytest.mark.parametrize("error, statement", [
+    # sd 1.20 over 4 runs: sd / 2 = 0.600 (the floor); 1.20 the sd; 2.40 = sd x 2
+    ("0.600", "within_floor"), ("1.20", "error_is_sd"), ("2.40", "sd_is_error"),
+    # one digit beyond each reading's printed interval: 1.26 is neither 1.20 nor 2.40 (within
+    # the warn ratio of 3, so a plain pass); 2.53 is above the floor by 4.2x
+    ("1.26", "within_floor"), ("2.53", "above_floor")])
+def test_readings_at_the_edges_of_the_digits(check_claim, error, statement):
+    (f,) = floor_findings(check_claim, "mean", "71.3", f"sd: 1.20\nstat_error: {error}\nsamples: 4\n")
+    assert f.statement == statement

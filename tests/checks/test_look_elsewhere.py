@@ -139,3 +139,54 @@ def test_finding_values_are_finite_numbers_or_none(check_claim):
         for f in le_findings(check_claim, extra):
             for value in (f.reported, f.recomputed):
                 assert value is None or math.isfinite(value)
+
+
+# --- a claim printing only a local and a global significance (issue 14) -------------------
+ONLY = "title: Invented claim\nmetric: mean\n"
+
+
+def test_local_and_global_imply_their_trials(check_claim):
+    # "local 3.9 sigma, global 2.3 sigma" (one-sided): scipy.stats.norm.sf gives p_local =
+    # 4.8096e-5 and p_global = 1.0724e-2, so N = log1p(-p_g)/log1p(-p_l) = 224.2 at the printed
+    # values; over the printed digits (3.85..3.95, 2.25..2.35) N runs from about 160 to 315
+    from scipy import stats
+    p_l, p_g = stats.norm.sf(3.9), stats.norm.sf(2.3)
+    n_mid = math.log1p(-p_g) / math.log1p(-p_l)
+    assert f"{n_mid:.1f}" == "224.2"
+    (f,) = check_claim(ONLY + "significance: {sigma: 3.9, global_sigma: 2.3}\n", only=["look-elsewhere"]).findings
+    assert f.status == "info" and f.statement == "implied_trials"
+    # fewest trials: the least significant local (3.85) with the most significant global (2.35)
+    low = math.log1p(-stats.norm.sf(2.35)) / math.log1p(-stats.norm.sf(3.85))
+    high = math.log1p(-stats.norm.sf(2.25)) / math.log1p(-stats.norm.sf(3.95))
+    assert f.details["trials_low"] == pytest.approx(low, rel=1e-9)
+    assert f.details["trials_high"] == pytest.approx(high, rel=1e-9)
+    assert f.details["trials_low"] < n_mid < f.details["trials_high"]
+    assert "effective independent trials" in f.message
+
+
+def test_a_global_above_the_local_is_flagged(check_claim):
+    (f,) = check_claim(ONLY + "significance: {sigma: 2.3, global_sigma: 3.9}\n", only=["look-elsewhere"]).findings
+    assert f.status == "fail" and f.details["trials_high"] < 1
+
+
+def test_a_tiny_local_p_gives_a_finite_count(check_claim):
+    # p_local = 1e-300 (37.0 sigma) and global 36 sigma: N = p_global / p_local, with p_global
+    # from scipy.special.log_ndtr(-36) = -652.73 (so N ~ e^(-652.73 + 690.78) = 3.4e16)
+    from scipy.special import log_ndtr
+    (f,) = check_claim(ONLY + "significance: {p_value: 1e-300, global_sigma: 36.0}\n",
+                       only=["look-elsewhere"]).findings
+    assert f.status == "info"
+    n_mid = math.exp(float(log_ndtr(-36.0)) - math.log(1e-300))
+    assert f.details["trials_low"] < n_mid < f.details["trials_high"] < 1e300
+    assert f.details["bonferroni_trials"] == pytest.approx(n_mid, rel=1e-9)
+
+
+def test_a_global_alone_is_a_skip(check_claim):
+    (f,) = check_claim(ONLY + "estimate: 1\nsignificance: {global_sigma: 2.3}\n", only=["look-elsewhere"]).findings
+    assert f.status == "skip" and f.statement == "needs_inputs"
+
+
+def test_implied_trials_at_the_printed_values(check_claim):
+    # log1p(-norm.sf(2.3)) / log1p(-norm.sf(3.9)) = 224.2 (scipy.stats.norm.sf), the batch's column
+    (f,) = check_claim(ONLY + "significance: {sigma: 3.9, global_sigma: 2.3}\n", only=["look-elsewhere"]).findings
+    assert f"{f.details['trials_central']:.1f}" == "224.2"

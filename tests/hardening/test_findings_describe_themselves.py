@@ -108,22 +108,28 @@ def _blocks(text: str, start: str, count: int) -> list[str]:
 
 @pytest.mark.parametrize("path", EXAMPLE_FILES, ids=lambda p: p.name)
 def test_markdown_and_html_name_the_findings_field(path):
+    """Each point of the notes names the field of every finding it raises: a point
+    of its own names its finding's field, and a point for one slip that explains
+    several findings (render.notes.raised_points) names each member's field."""
     from html import escape
 
     from checker.render.html import render_html
     from checker.render.markdown import render_markdown
+    from checker.render.notes import raised_points
 
     claim = read_claim(path)
     report = run_checks(claim)
-    raised = [f for f in report.findings if f.status in ("fail", "warn")]
+    raised = raised_points(report, claim)
     md_points = _blocks(render_markdown(report, claim), "\n{n}. **", len(raised))
     html_points = _blocks(render_html(report, claim), 'id="point-{n}"', len(raised))
-    for f, md, page in zip(raised, md_points, html_points):
-        if f.field is None:
-            assert "(field `" not in md and 'class="cc-field"' not in page, f.message
-        else:
-            assert f"(field `{f.field}`)" in md, (f.field, md)
-            assert f'<span class="cc-field">({escape(f.field)})</span>' in page, f.field
+    for point, md, page in zip(raised, md_points, html_points):
+        members = getattr(point, "members", (point,))
+        fields = [m.printed_field for m in members if m.printed_field is not None]
+        if not fields:
+            assert "(field `" not in md and 'class="cc-field"' not in page, point.message
+        for field in fields:
+            assert f"(field `{field}`)" in md, (field, md)
+            assert f'<span class="cc-field">({escape(field)})</span>' in page, field
 
 
 # --- the raw-data checks (RAW_REGISTRY), on the invented example's simulated data ---------------

@@ -66,8 +66,13 @@ def _boot():
     return figures.bootstrap_svg(edges, counts, 1.82e-3, 2.61e-3)
 
 
+def _cmp(label="previous best"):
+    return figures.comparison_svg(("estimate", 0.913, 0.0081), (label, 0.890, 0.0090), (0.023, 0.0122),
+                                  (0.023, 0.0081), "recomputed (unpaired)")
+
+
 BUILDERS = {"significance": _sig, "forest": _forest, "budget": _budget,
-            "raw-histogram": _raw, "bootstrap": _boot}
+            "raw-histogram": _raw, "bootstrap": _boot, "comparison": _cmp}
 
 
 @pytest.fixture(scope="module")
@@ -186,3 +191,22 @@ def test_mirror_puts_a_two_sided_sigma_on_the_estimates_side():
     assert "−6" in below and "6" not in below
     assert "6" in above and "−6" not in above
     assert "printed 6 σ" in below and "printed 6 σ" in above
+
+
+def test_comparison_rows_and_zero_line(drawn):
+    texts = _texts(drawn["comparison"])
+    for label in ("estimate", "previous best", "as printed", "recomputed (unpaired)",
+                  "difference ± one standard error"):
+        assert label in texts
+    # a label with markup characters is drawn as literal text
+    assert "<b>$x$</b>" in _texts(_cmp("<b>$x$</b>"))
+
+
+def test_comparison_takes_a_negative_difference_and_no_error():
+    svg = figures.comparison_svg(("estimate", 0.5, None), ("baseline", 0.6, 0.01), (-0.1, None))
+    assert "recomputed" in _texts(svg)
+
+
+def test_comparison_refuses_nan():
+    with pytest.raises(ValueError):
+        figures.comparison_svg(("estimate", float("nan"), None), ("baseline", 0.6, 0.01), (-0.1, None))

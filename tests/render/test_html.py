@@ -67,6 +67,32 @@ def test_every_printed_number_shown(four_parts):
         assert rep.text in text, rep.path
 
 
+NEW_KINDS = ["comparison_paired_clean.yaml", "comparison_paired_no_discordant.yaml",
+             "counts_background_error_ignored.yaml", "screening_rates_clean.yaml",
+             "significances_only_local_global.yaml", "mean_sd_printed_as_error.yaml"]
+
+
+@pytest.mark.parametrize("name", NEW_KINDS)
+def test_every_printed_number_of_each_kind_shown(name):
+    """The claim section lists the baseline, comparison, counting, table and rate
+    fields as printed, each under its own path."""
+    from checker.claim import read_claim
+    from checker.checks import run_checks
+    from checker.render.notes import printed_numbers
+
+    claim = read_claim(Path(__file__).parents[2] / "claims_examples" / name)
+    numbers = printed_numbers(claim)
+    kind_fields = [r for r in numbers if r.path.startswith(("baseline.", "comparison.", "observed", "background",
+                                                            "counts_table.", "rates."))]
+    if name != "mean_sd_printed_as_error.yaml" and name != "significances_only_local_global.yaml":
+        assert kind_fields, name
+    page = render_html(run_checks(claim), claim)
+    claim_part = page[page.index('id="claim"'):page.index('id="points"') if 'id="points"' in page else None]
+    text = " ".join(_parse(claim_part).text)
+    for rep in numbers:
+        assert rep.text in text, rep.path
+
+
 def test_self_contained_and_scriptless(four_parts):
     page, _, _ = four_parts
     tags = _parse(page).tags
@@ -276,3 +302,19 @@ def test_unusable_budget_details_leave_the_picture_out(monkeypatch, details):
     odd = Finding("warn", "odd budget", details=details, check="error-budget")
     page = render_html(Report(report.title, report.file, report.findings + (odd,)), claim)
     assert 'id="figure-budget"' not in page and "odd budget" in page
+
+
+def test_comparison_claim_gets_the_difference_picture():
+    # claims_examples/comparison_baseline_error_ignored.yaml (invented): both estimates with their
+    # binomial errors, sqrt(0.913 x 0.087 / 1200) = 0.00814 and sqrt(0.89 x 0.11 / 1200) = 0.00903,
+    # and the difference 0.023 with the errors in quadrature, 0.0122
+    from checker.checks import run_checks
+    from checker.claim import read_claim
+    from checker.render.html import render_html
+
+    path = Path(__file__).resolve().parents[2] / "claims_examples" / "comparison_baseline_error_ignored.yaml"
+    claim = read_claim(path)
+    page = render_html(run_checks(claim), claim)
+    assert 'data-figure="comparison"' in page and 'id="section-comparison"' in page
+    for shown in ("0.00814", "0.00903", "0.0122", "0.0081"):
+        assert f">{shown}<" in page

@@ -126,3 +126,52 @@ def test_sidak_when_the_local_p_rounds_to_one():
     assert log_sidak(-1e-20, 1) == pytest.approx(-1e-20, rel=1e-9)
     # Ten trials: 1 - (1e-20)^10 = 1 - 1e-200, whose log is -1e-200.
     assert log_sidak(-1e-20, 10) == pytest.approx(-1e-200, rel=1e-9)
+
+
+# --- the trials a local and a global p imply (Sidak inverted; issue 14) ---------------------
+from decimal import localcontext  # noqa: E402
+
+from checker.stats.multiplicity import sidak_trials  # noqa: E402
+
+
+def trials_by_decimal(p_local: str, p_global: str) -> Decimal:
+    """N = ln(1 - p_global) / ln(1 - p_local) in 420-digit decimal arithmetic (Python's decimal
+    module, natural log to the context precision), independent of the double-precision log1p."""
+    with localcontext() as ctx:
+        ctx.prec = 420
+        one = Decimal(1)
+        return (one - Decimal(p_global)).ln() / (one - Decimal(p_local)).ln()
+
+
+@pytest.mark.parametrize("p_local, p_global", [
+    ("4.8096e-5", "1.0724e-2"),        # local 3.9, global 2.3 sigma (one-sided, two experiments)
+    ("1.3499e-3", "1.3422e-2"),        # local 3 sigma, about 10 trials
+    ("1e-300", "1e-297"),               # both deep: N ~ p_global / p_local = 1000
+    ("1e-300", "0.5"),                  # a 37-sigma local p with nothing left globally
+    ("0.2", "0.9"),                     # large p: log1p would not be needed, expm1 is
+])
+def test_sidak_trials_against_decimal_arithmetic(p_local, p_global):
+    got = sidak_trials(math.log(float(p_local)), math.log(float(p_global)))
+    ref = float(trials_by_decimal(p_local, p_global))
+    assert got == pytest.approx(ref, rel=1e-12)
+
+
+def test_sidak_trials_beyond_the_double_range():
+    # log p_local = -1000 (p = e^-1000 underflows a double): N = p_global / p_local = e^10
+    # when p_global = e^-990 (from -log(1 - p) = p + p^2/2 + ..., the correction ~ e^-1000)
+    assert sidak_trials(-1000.0, -990.0) == pytest.approx(math.exp(10.0), rel=1e-12)
+    # ... and N = ln 2 / e^-1000 = ln 2 x e^1000 when p_global = 1/2: beyond the double range
+    assert sidak_trials(-1000.0, math.log(0.5)) == math.inf
+
+
+@settings(max_examples=60)
+@given(st.floats(-700, -1e-3), st.floats(1, 1e6))
+def test_sidak_trials_inverts_log_sidak(log_p, trials):
+    log_g = log_sidak(log_p, trials)
+    if log_g > -1e-15:  # the global p rounds to 1: any larger N gives it too
+        return
+    assert sidak_trials(log_p, log_g) == pytest.approx(trials, rel=1e-8)
+
+
+def test_sidak_trials_below_one_when_the_global_is_the_more_significant():
+    assert sidak_trials(math.log(1e-2), math.log(1e-4)) < 1
