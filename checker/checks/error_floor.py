@@ -19,7 +19,7 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats.precision import agrees, over_box
 from ..stats.ranges import sampling_error_range, scalar_range
-from ..wording import num, span_text
+from ..wording import and_list, num, span_text
 from .common import fewer_samples_than_circuits, flagged_error, skipped_words, above, below, count_for_error, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
@@ -232,7 +232,8 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
             return
     if error is None or n is None:
         missing = (["stat_error"] if error is None else []) + ([model.count_field] if n is None else [])
-        yield Finding("skip", f"{what}: no floor to compare with; needs {' and '.join(missing)}.",
+        missing += [f for f in model.needs() if getattr(claim, f) is None]  # the mean model's sd
+        yield Finding("skip", f"{what}: no floor to compare with; needs {and_list(missing)}.",
                       details={**details, "missing": missing}, statement="needs_inputs")
         return
     missing = [f for f in model.needs() if getattr(claim, f) is None]

@@ -107,8 +107,15 @@ def test_skips_name_what_is_missing(check_claim):
     (f,) = floor_findings(check_claim, "proportion", "0.9", "stat_error: 0.01\n")
     assert f.status == "info" and f.message.startswith("Headline: no samples are printed;")
     assert list(f.details["missing"]) == ["samples"] and f.recomputed == pytest.approx(900)
+    # A mean's floor is sd/sqrt(N) (common practice): with no sd the skip says so too (issue 16).
     (f,) = floor_findings(check_claim, "mean", "0.9", "stat_error: 0.01\n")
-    assert f.status == "skip" and f.message == "Headline: no floor to compare with; needs samples."
+    assert f.status == "skip" and f.message == "Headline: no floor to compare with; needs samples and sd."
+    assert list(f.details["missing"]) == ["samples", "sd"]
+    (f,) = floor_findings(check_claim, "mean", "0.9", "")
+    assert f.message == "Headline: no floor to compare with; needs stat_error, samples and sd."
+    # With sd the count follows instead: (0.2 / 0.01)^2 = 400 samples (se = sd/sqrt(N), common practice).
+    (f,) = floor_findings(check_claim, "mean", "0.9", "stat_error: 0.01\nsd: 0.2\n")
+    assert f.status == "info" and f.recomputed == pytest.approx(400) and "sd" not in f.details["missing"]
     (f,) = floor_findings(check_claim, "proportion", "0.9", "")
     assert f.message == "Headline: no floor to compare with; needs stat_error and samples."
 
