@@ -88,7 +88,7 @@ def _looks_numeric(text: str) -> bool:
 # pandas parses this many chunks' rows at a time (fewer, larger reads cost less per row: 3e6 rows
 # in 0.65 s at 2^18 rows a read against 0.54 s at 2^20); the rows still reach the estimators in
 # chunks of ``chunk_rows``, so every sum is added in the same order and every number is the same.
-CSV_READ_CHUNKS = 4
+CSV_READ_CHUNKS = 2
 
 
 def csv_chunks(table: DataTable) -> Iterator[Chunk]:
