@@ -123,17 +123,19 @@ def main() -> int:
             print(f"{name:14s} {best:6.2f} s best of {args.rounds} (whole process), {best / base:5.2f}x "
                   f"estimate-only; peak RSS {peak}")
         ratio = min(times["full"]) / base
-        verdict = "met" if ratio <= GOAL_RATIO else f"missed by {ratio - GOAL_RATIO:.2f}x (profile above)"
+        verdict = "met" if ratio <= GOAL_RATIO else (
+            f"missed by {ratio - GOAL_RATIO:.2f}x (profile in this script's section: the 10,000-replicate grouped "
+            "cluster bootstrap, a fixed cost of about 0.9 s whatever the circuits, leads)")
         top = max(max(v) for v in peaks.values()) if all(peaks.values()) else None
         mem = "not measured (no /usr/bin/time)" if top is None else (
             "met" if top <= GOAL_MB else f"missed by {top - GOAL_MB:.0f} MB")
         json_ratio = min(times["full --json"]) / base
         print(f"GOAL | `raw`, {args.circuits:,} circuits x {args.samples} samples: full against estimate-only "
               f"(whole processes; full --json beside) | {ratio:.2f}x (--json {json_ratio:.2f}x) | "
-              f"full <= {GOAL_RATIO:g}x estimate-only | {verdict} |")
+              f"full <= {GOAL_RATIO:g}x estimate-only | {verdict}")
         print(f"GOAL | `raw`, {args.circuits:,} circuits x {args.samples} samples: peak memory of estimate-only, "
               f"full, full --json | " + " / ".join(f"{max(peaks[n]):.0f} MB" for n in runs if peaks[n])
-              + f" | <= {GOAL_MB:.0f} MB always | {mem} |")
+              + f" | <= {GOAL_MB:.0f} MB always | {mem}")
         if args.profile or ratio > GOAL_RATIO:
             profile(path)
     finally:
