@@ -43,6 +43,26 @@ def test_an_error_smaller_than_sampling_allows(check_claim):
     assert f.reported == 0.002
 
 
+def test_an_error_no_count_of_circuits_or_samples_reaches_says_so(check_claim):
+    # Linear XEB on 3 qubits (D = 8), F = 0.01 from 10 samples over 2 circuits: the sampling term
+    # alone, (1 + 2F - F^2)/N ~ 0.1, is far above 0.001^2, so neither more samples from 2 circuits
+    # nor more circuits at 10 samples gives the printed error (the sentence once read "it would
+    # take about more circuits and samples than ...").
+    (f,) = floor_findings(check_claim, "linear-xeb", "0.01",
+                          "qubits: 3\nstat_error: 0.001\nsamples: 10\ncircuits: 2\n")
+    assert f.status == "fail" and f.reproduced_by is None
+    assert f.message.endswith("no number of samples from 2 circuits would reach it, nor any number of "
+                              "circuits at 10 samples.")
+
+
+def test_an_error_only_more_circuits_reach_names_the_circuits(check_claim):
+    (f,) = floor_findings(check_claim, "linear-xeb", "0.3",
+                          "qubits: 3\nstat_error: 0.01\nsamples: 1000000\ncircuits: 10\n")
+    assert f.status == "fail"
+    assert "it would take about 3e2 circuits (no number of samples from 10 suffices)." in f.message
+    assert set(f.reproduced_by) == {"circuits"}
+
+
 def test_the_floor_edge_one_digit_at_a_time(check_claim):
     # Floor low end: "0.912" is [0.9115, 0.9125]; sqrt(0.9125 x 0.0875 / 1000) = 0.0089355.
     assert math.sqrt(0.9125 * 0.0875 / 1000) == pytest.approx(0.0089355, abs=1e-7)
