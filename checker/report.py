@@ -45,6 +45,13 @@ class Shown:
         log10 of the printed value itself, read from its text, so that a
         printed ``1e-400`` (whose value underflows to 0) keeps its size; None
         for a value that is not above zero.
+    one_sigma : float or None
+        For an error printed at another level (the claim's ``error_level``,
+        such as a 95% half-width): the one standard error it stands for, which
+        the checks compared; None for a number printed at one sigma.  ``text``,
+        ``low`` and ``high`` are then those of the print itself.
+    error_level : str or None
+        What such an error stands for, in words ("95% half-width", "2-sigma bar").
     """
 
     text: str
@@ -53,15 +60,36 @@ class Shown:
     log10_low: float | None = None
     log10_high: float | None = None
     log10_value: float | None = None
+    one_sigma: float | None = None
+    error_level: str | None = None
 
     @classmethod
     def of(cls, rep: Any) -> "Shown | None":
         """From a claim's Reported value (anything with text, low, high and
-        natural-log bounds ``log_low``/``log_high``); None for None."""
+        natural-log bounds ``log_low``/``log_high``); None for None.  A
+        Reported error at another level (``level`` and ``as_printed`` set) is
+        shown as printed, with its one standard error beside it."""
         if rep is None:
             return None
-        return cls(rep.text, rep.low, rep.high, _log10(getattr(rep, "log_low", math.nan)),
-                   _log10(getattr(rep, "log_high", math.nan)), log10_of_printed(rep.text, rep.value))
+        log_low, log_high = getattr(rep, "log_low", math.nan), getattr(rep, "log_high", math.nan)
+        level = getattr(rep, "level", None)
+        if level is None or getattr(rep, "as_printed", None) is None:
+            return cls(rep.text, rep.low, rep.high, _log10(log_low), _log10(log_high),
+                       log10_of_printed(rep.text, rep.value))
+        k, shift = level.multiple, math.log(level.multiple)
+        return cls(rep.as_printed, rep.low * k, rep.high * k, _log10(log_low + shift), _log10(log_high + shift),
+                   log10_of_printed(rep.as_printed, rep.value * k), one_sigma=rep.value, error_level=level.words)
+
+    @property
+    def quoted(self) -> str:
+        """The text a reader is shown: the print, and for an error at another
+        level its one standard error too ("0.4e-3 (95% half-width: 0.204e-3 at
+        one sigma)"), as the checks' messages quote it."""
+        if self.one_sigma is None or self.error_level is None:
+            return self.text
+        from .wording import at_one_sigma
+
+        return at_one_sigma(self.text, self.error_level, self.one_sigma)
 
 
 @dataclass(frozen=True)

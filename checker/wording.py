@@ -152,6 +152,13 @@ def like(x: float | None, printed, figures: int | None = None) -> str:
     return f"{out}e{exp}" if exp is not None else out
 
 
+def at_one_sigma(text: str, level_words: str, one_sigma: float) -> str:
+    """A printed error at another level, with its one standard error:
+    ``"0.4e-3 (95% half-width: 0.204e-3 at one sigma)"``.  The claim's messages
+    and the referee notes both say it this way."""
+    return f"{text} ({level_words}: {like(one_sigma, text)} at one sigma)"
+
+
 def like_range(low: float | None, high: float | None, printed) -> str:
     """``a to b`` in the notation of ``printed``, one number when both ends print the same."""
     a, b = like(low, printed), like(high, printed)

@@ -232,6 +232,19 @@ def test_check_takes_several_files_and_standard_input(write_claim, monkeypatch):
     # The worst status: an unusable file (2) beats a flag (1); the others are still checked.
     status, out, err = cli("check", flawed, write_claim("title: t\n"), clean, "--verdict-only")
     assert status == 2 and len(out.splitlines()) == 2 and err.count("\n") == 1
+    # With --json the unusable file keeps its place in the array, with the same one line.
+    bad = write_claim("title: t\n")
+    status, out, err = cli("check", flawed, bad, clean, "--json")
+    entries = strict_json(out)
+    assert status == 2 and [e["verdict"] for e in entries] == ["inconsistent", "unusable", "consistent"]
+    assert entries[1] == {"file": str(bad), "status": "unusable", "verdict": "unusable",
+                          "error": err.strip()}
+    assert err.count("\n") == 1 and err.startswith(f"{bad}: ") and "metric" in err
+    assert "status" not in entries[0] and "status" not in entries[2]
+    # Every file unusable: still an array, and the worst status.
+    status, out, err = cli("check", bad, str(bad) + ".missing.yaml", "--json")
+    assert status == 2 and [e["status"] for e in strict_json(out)] == ["unusable", "unusable"]
+    assert err.count("\n") == 2
     # "-" reads one claim from standard input, YAML or JSON.
     for text in (CLEAN, json.dumps({"title": "t", "metric": "mean", "estimate": 1})):
         monkeypatch.setattr("sys.stdin", io.TextIOWrapper(io.BytesIO(text.encode())))

@@ -19,7 +19,7 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats.precision import agrees, over_box
 from ..stats.ranges import sampling_error_range, scalar_range
-from ..wording import num, span_text
+from ..wording import and_list, num, span_text
 from .common import fewer_samples_than_circuits, flagged_error, skipped_words, above, below, count_for_error, metric_of, model_inputs
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
@@ -232,7 +232,8 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
             return
     if error is None or n is None:
         missing = (["stat_error"] if error is None else []) + ([model.count_field] if n is None else [])
-        yield Finding("skip", f"{what}: no floor to compare with; needs {' and '.join(missing)}.",
+        missing += [f for f in model.needs() if getattr(claim, f) is None]  # the mean model's sd
+        yield Finding("skip", f"{what}: no floor to compare with; needs {and_list(missing)}.",
                       details={**details, "missing": missing}, statement="needs_inputs")
         return
     missing = [f for f in model.needs() if getattr(claim, f) is None]
@@ -275,13 +276,16 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
     ratio = error.value / ((low + high) / 2)
     facts["ratio"] = ratio
     reproduce = {count_name: round(implied_n)} if implied_n is not None else None
-    implied_text = f"{num(implied_n, 2)} {count_name}"
+    needed = (f"it would take about {num(implied_n, 2)} {count_name}" if implied_n is not None
+              else f"no number of {count_name} would reach it under the model")
     if implied_n is None and k_mid and v_mid:
         # No sample count reaches the print with K circuits: say how many circuits would.
         implied_k = _circuits_for(v_mid, b_mid, factor[0], error.value, n.value)
         reproduce = {"circuits": round(implied_k)} if implied_k is not None else None
-        implied_text = (f"{num(implied_k, 2)} circuits (no number of samples from {model_circuits.text} suffices)"
-                        if implied_k is not None else "more circuits and samples than the double range holds")
+        needed = (f"it would take about {num(implied_k, 2)} circuits (no number of samples from "
+                  f"{model_circuits.text} suffices)" if implied_k is not None
+                  else f"no number of samples from {model_circuits.text} circuits would reach it, nor any number "
+                  f"of circuits at {n.text} {count_name}")
     about = {"field": error.path, "printed": Shown.of(error), "recomputed_range": Span(low, high),
              "tolerance": tol}
     source = f"{n.text} {count_name}" + (f" from {model_circuits.text} circuits" if model_circuits is not None else "")
@@ -294,7 +298,7 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
     if model_circuits is not None and below(error, plausible[0], tol):
         yield Finding("fail", f"{base}: smaller than sampling alone permits "
                       f"({num(ratio, 2)}x), even allowing for how little {model_circuits.text} circuits tell of "
-                      f"their own spread (at least {span_text(plausible)}); it would take about {implied_text}.",
+                      f"their own spread (at least {span_text(plausible)}); {needed}.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
                       details=facts, statement="below_floor", **about)
     elif model_circuits is not None and below(error, low, tol):
@@ -326,7 +330,7 @@ def _one(claim: Claim, estimate: Reported, error: Reported | None, n: Reported |
                           details={**facts, "missing": ["samples"]}, statement="per_circuit_convention", **about)
             return
         yield Finding("fail", f"{base}: smaller than sampling alone permits "
-                      f"({num(ratio, 2)}x); it would take about {implied_text}.",
+                      f"({num(ratio, 2)}x); {needed}.",
                       reported=error.value, recomputed=(low + high) / 2, reproduced_by=reproduce,
                       details=facts, statement="below_floor", **about)
     elif below(error, low, tol):

@@ -75,6 +75,11 @@ class Reported:
     line: int | None = None
     log_low: float = math.nan  # natural logs of low/high, exact beyond the double range
     log_high: float = math.nan
+    # A printed error at ``error_level`` (Builder.one_sigma): value, low, high and the logs are one
+    # standard error, text says both ("0.4e-3 (95% half-width: 0.204e-3 at one sigma)"), and these
+    # keep the level and the bare print ("0.4e-3"). None for a number printed at one sigma.
+    level: "ErrorLevel | None" = None
+    as_printed: str | None = None
 
     @property
     def bounds(self) -> tuple[float, float]:
@@ -278,13 +283,14 @@ class _Builder:
         level = self.error_level
         if rep is None or level is None or level.multiple == 1.0:
             return rep
-        from ..wording import like
+        from ..wording import at_one_sigma
 
         k = level.multiple
         shift = math.log(k)
         return replace(rep, value=rep.value / k, low=rep.low / k, high=rep.high / k,
-                       text=f"{rep.text} ({level.words}: {like(rep.value / k, rep.text)} at one sigma)",
-                       log_low=rep.log_low - shift, log_high=rep.log_high - shift)
+                       text=at_one_sigma(rep.text, level.words, rep.value / k),
+                       log_low=rep.log_low - shift, log_high=rep.log_high - shift,
+                       level=level, as_printed=rep.text)
 
     def fail(self, path, problem, allowed):
         raise ClaimSchemaError(self.doc.file, problem, allowed, path=dotted(path),

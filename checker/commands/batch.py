@@ -14,7 +14,8 @@ FORMATS = {".csv": "csv", ".json": "json", ".html": "html", ".htm": "html"}
 def add_parser(sub) -> None:
     p = sub.add_parser("batch", help=HELP, description=HELP + ". Columns are claim fields with dots "
                        "for nesting (significance.sigma); a column starting with # is a note. Exit "
-                       "status: 1 when a claim fails a check, else 2 when a row could not be used, else 0.")
+                       "status, the worst as for check: 2 when a row could not be used, else 1 when a claim fails a "
+                       "check, else 0.")
     p.add_argument("table", help="a .csv, .tsv, .parquet table, or a folder of .yaml/.json claim files")
     p.add_argument("--out", metavar="OUT",
                    help="write one row per claim to OUT.csv, OUT.json or OUT.html")

@@ -1,9 +1,10 @@
 """``claimcheck check FILE [FILE ...]``: re-derive every number of each claim.
 
 Several files are checked one after another (``-`` reads one claim from
-standard input); an unusable file gets its one line on standard error and the
-others are still checked.  The exit status is the worst: 2 when any file could
-not be used, else 1 when any check flagged something, else 0.
+standard input); an unusable file gets its one line on standard error (and,
+with ``--json``, an entry in the array) and the others are still checked.
+The exit status is the worst: 2 when any file could not be used, else 1 when
+any check flagged something, else 0.
 """
 
 from __future__ import annotations
@@ -93,6 +94,13 @@ def run(args, stdout, stderr) -> int:
                 raise
             stderr.write(exc.one_line() + "\n")
             status = 2
+            if args.json:
+                from ..render.json import dumps
+
+                # The array keeps one entry per file given, in order: a script
+                # reading it sees which file could not be used and why.
+                rendered.append(dumps({"file": STDIN if path == "-" else path, "status": "unusable",
+                                       "verdict": "unusable", "error": exc.one_line()}))
             continue
         report = run_checks(claim, args.only)
         status = max(status, report.exit_status)

@@ -174,12 +174,17 @@ def run(args, stdout, stderr) -> int:
 
 
 def _as_dict(args, plan, count_name, at) -> dict:
+    # The claim vocabulary's names (estimate, required_sigma, syst_error), as the options have them;
+    # the first names (fidelity, target_sigma, syst) stay beside them for scripts that read them.
     return {
         "metric": args.metric,
-        "fidelity": plan.value,
+        "estimate": plan.value,
         "threshold": plan.threshold,
-        "target_sigma": plan.target_sigma,
+        "required_sigma": plan.target_sigma,
         "power": plan.power,
+        "syst_error": plan.syst,
+        "fidelity": plan.value,
+        "target_sigma": plan.target_sigma,
         "syst": plan.syst,
         count_name: _json_count(plan.count),
         "reachable": plan.reachable,

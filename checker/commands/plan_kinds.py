@@ -132,7 +132,9 @@ def run_kind(kind: str, args, stdout) -> int:
             count = count if kind == "counting-exposure" else max(2 if kind == "mean-runs" else 1, math.ceil(count))
             rows.append({"count": count, "power": power_at(count)})
     key, words = UNITS[kind]
-    data = {"metric": args.metric, "kind": kind, "target_sigma": sigma, "power": args.power,
+    # required_sigma is the claim vocabulary's name; target_sigma stays for scripts that read it.
+    data = {"metric": args.metric, "kind": kind, "required_sigma": sigma, "target_sigma": sigma,
+            "power": args.power,
             key: (size.count if size.reachable else None), "samples": None, "reachable": size.reachable,
             "achieved_power": size.achieved_power if size.reachable else None, "best_sigma": None,
             "inputs": _inputs(kind, args),

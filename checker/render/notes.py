@@ -185,7 +185,7 @@ def title_of(check_id: str) -> str:
 def make_point(finding: Finding, claim: Claim | None = None) -> Point:
     """One finding as a point; everything comes from the finding and its
     check's spec (``claim`` is accepted for callers that have it)."""
-    printed = finding.printed.text if finding.printed is not None else None
+    printed = finding.printed.quoted if finding.printed is not None else None
     field = finding.field
     reproduced = convention_words(finding.reproduced_by)
     part = finding.details.get("part")
@@ -255,29 +255,37 @@ def _slip_key(finding: Finding) -> tuple | None:
     return convention, None if part is None else str(part)
 
 
-def raised_points(report: Report, claim: Claim | None = None) -> list[Point | SharedPoint]:
-    """The flags and notes as the points a referee raises, in report order, one
-    point per slip: findings that one convention explains (:func:`_slip_key`)
-    become one :class:`SharedPoint` at the place of the first of them; every
-    other finding is its own :class:`Point`."""
-    raised = [f for f in report.findings if f.status in ("fail", "warn")]
+def slip_groups(findings: Iterable[Finding]) -> list[list[Finding]]:
+    """The flags and notes among ``findings``, one list per point a referee
+    raises, in order: the findings one convention explains (:func:`_slip_key`)
+    together, at the place of the first of them; every other finding alone.
+    The claim notes (:func:`raised_points`) and the raw-data notes both group
+    through this."""
+    raised = [f for f in findings if f.status in ("fail", "warn")]
     groups: dict[tuple, list[Finding]] = {}
+    out: list[list[Finding]] = []
     for f in raised:
         key = _slip_key(f)
-        if key is not None:
-            groups.setdefault(key, []).append(f)
-    out: list[Point | SharedPoint] = []
-    for f in raised:
-        key = _slip_key(f)
-        group = groups.get(key) if key is not None else None
-        if group is None or len(group) == 1:
-            out.append(make_point(f, claim))
-        elif group[0] is f:
-            out.append(_shared_point(group, claim))
+        if key is None:
+            out.append([f])
+        elif key in groups:
+            groups[key].append(f)
+        else:
+            groups[key] = [f]
+            out.append(groups[key])
     return out
 
 
-def _shared_point(group: list[Finding], claim: Claim | None) -> SharedPoint:
+def raised_points(report: Report, claim: Claim | None = None) -> list[Point | SharedPoint]:
+    """The flags and notes as the points a referee raises, in report order, one
+    point per slip (:func:`slip_groups`): findings that one convention explains
+    become one :class:`SharedPoint`; every other finding is its own :class:`Point`."""
+    return [make_point(g[0], claim) if len(g) == 1 else shared_point(g, claim)
+            for g in slip_groups(report.findings)]
+
+
+def shared_point(group: list[Finding], claim: Claim | None = None) -> SharedPoint:
+    """Several findings one slip explains (a group of :func:`slip_groups`) as one point."""
     members = tuple(make_point(f, claim) for f in group)
     reproduced = members[0].reproduced or ""
     headings = list(dict.fromkeys(p.heading for p in members))

@@ -15,7 +15,7 @@ from ..report import Finding, Report
 from .markdown import md
 from ..vocabulary import CAUTION, STATUS_WORDS
 from ..wording import num, p_equals
-from .notes import make_point, summary_lines, title_of
+from .notes import make_point, shared_point, slip_groups, summary_lines, title_of
 from ..vocabulary import RESAMPLING_NAMES
 from .raw_text import METRIC_WORDS, TEST_WORDS, visible_findings
 
@@ -26,6 +26,24 @@ def _title(f: Finding) -> str:
     """The check's title from its spec (claim or raw-data registry)."""
     title = title_of(f.check)
     return title + (" (with the raw data's numbers)" if f.details.get("numbers") == "raw" else "")
+
+
+def _point_lines(n: int, group: list[Finding]) -> list[str]:
+    """One point: a finding with its question, or the findings one slip
+    explains, each listed, under one question."""
+    if len(group) == 1:
+        f = group[0]
+        lines = [f"{n}. **{md(_title(f))}** ({STATUS_WORDS[f.status]}). {md(f.message)}"]
+        question = make_point(f).question  # the question its check's spec owns
+    else:
+        s = shared_point(group)
+        lines = [f"{n}. **{md(s.heading)}** ({STATUS_WORDS[s.status]}). {md(s.opening)}"]
+        named = len({_title(f) for f in group}) > 1
+        lines += [f"   - {md(_title(f)) + ': ' if named else ''}{md(f.message)}" for f in group]
+        question = s.question
+    if question:
+        lines.append(f"   - Suggested question: {md(question)}")
+    return lines
 
 
 def render_raw_markdown(result, report: Report | Sequence[Finding] | None = None) -> str:
@@ -72,13 +90,10 @@ def render_raw_markdown(result, report: Report | Sequence[Finding] | None = None
         lines.append("")
     if report is not None:
         shown, _ = visible_findings(report.findings)
-        raised = [f for f in shown if f.status in ("fail", "warn")]
+        raised = slip_groups(shown)  # one slip, one point, as in the claim's notes
         lines += ["## Against the claim", ""]
-        for n, f in enumerate(raised, 1):
-            lines.append(f"{n}. **{md(_title(f))}** ({STATUS_WORDS[f.status]}). {md(f.message)}")
-            question = make_point(f).question  # the question its check's spec owns
-            if question:
-                lines.append(f"   - Suggested question: {md(question)}")
+        for n, group in enumerate(raised, 1):
+            lines += _point_lines(n, group)
         if not raised:
             lines.append("Nothing to raise.")
         passed = [f for f in shown if f.status == "pass"]

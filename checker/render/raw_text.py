@@ -72,8 +72,7 @@ def render_raw_text(result) -> str:
         width = max((len(f.check) for f in result.findings), default=8)
         lines += ["", f"Against the claim {result.claim_file}:"]
         shown, same = visible_findings(result.findings)
-        for f in shown:
-            lines.append(f"{STATUS_MARKS[f.status]} {f.check:<{width}}  {f.message}")
+        lines += _finding_lines(shown, width)
         if same:
             lines.append(f"       ({same} claim check(s) give the same result with the raw data's numbers; "
                          "--json lists them)")
@@ -83,6 +82,27 @@ def render_raw_text(result) -> str:
         if counts["fail"] or counts["warn"]:
             lines.append(CAUTION_SHORT)
     return "\n".join(lines) + "\n"
+
+
+def _finding_lines(shown, width: int) -> list[str]:
+    """One line per finding, except that the findings one slip explains are
+    one entry (as in the referee notes): the slip's line at the place of the
+    first, then each finding it explains below it."""
+    from .notes import shared_point, slip_groups  # here, so that drift's text need not load the checks
+
+    slips = {id(f): g for g in slip_groups(shown) if len(g) > 1 for f in g}
+    lines = []
+    for f in shown:
+        group = slips.get(id(f))
+        if group is None:
+            lines.append(f"{STATUS_MARKS[f.status]} {f.check:<{width}}  {f.message}")
+        elif group[0] is f:
+            s = shared_point(group)
+            lines.append(f"{STATUS_MARKS[s.status]} {f.check:<{width}}  {s.opening}")
+            named = len({m.check for m in group}) > 1
+            lines += [f"{'':<{len(STATUS_MARKS[m.status]) + width + 3}}- {m.check + ': ' if named else ''}{m.message}"
+                      for m in group]
+    return lines
 
 
 def visible_findings(findings):
@@ -116,8 +136,10 @@ def render_drift_text(result, file: str, origin: str | None = None) -> str:
     r = result
     unit = f" hours since the first point ({origin})" if origin else ""
     per = "per hour" if origin else "per unit time"
-    lines = [f"Drift of {file}: {r.points} points, window {_n(r.window_start)} to {_n(r.window_end)}{unit} "
-             f"({r.window_points} points)", ""]
+    # The count of the series and of its window are said once each.
+    inside = "all" if r.window_points == r.points else f"{r.window_points} of them"
+    lines = [f"Drift of {file}: {r.points} points, {inside} in the window {_n(r.window_start)} to "
+             f"{_n(r.window_end)}{unit}", ""]
     lines.append(f"  slope            {_n(r.slope)} +- {_n(r.slope_error, 3)} {per}; {r.level:.0%} interval "
                  f"{_n(r.slope_low)} to {_n(r.slope_high)} ({p_equals(r.slope_p_value)})")
     lines.append(f"  level at window  {_n(r.trend_level)} +- {_n(r.trend_level_error, 3)} (intercept at the window "

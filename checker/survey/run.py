@@ -110,11 +110,15 @@ class BatchResult:
 
     @property
     def exit_status(self) -> int:
-        """1 when a claim failed a check; otherwise 2 when a row could not be
-        used; otherwise 0."""
-        if self.summary["verdicts"]["inconsistent"]:
-            return 1
-        return 2 if self.summary["unusable"] else 0
+        return worst_status(self.summary)
+
+
+def worst_status(summary: dict) -> int:
+    """A batch's exit status, the worst as ``check`` ranks it: 2 when a row
+    could not be used; otherwise 1 when a claim failed a check; otherwise 0."""
+    if summary["unusable"]:
+        return 2
+    return 1 if summary["verdicts"]["inconsistent"] else 0
 
 
 def _value(rep) -> float:
@@ -586,9 +590,7 @@ class StreamedBatch:
 
     @property
     def exit_status(self) -> int:
-        if self.summary["verdicts"]["inconsistent"]:
-            return 1
-        return 2 if self.summary["unusable"] else 0
+        return worst_status(self.summary)
 
     def frames(self):
         """The summary frame (columns :data:`COLUMNS`) a chunk at a time, in

@@ -43,6 +43,26 @@ def test_an_error_smaller_than_sampling_allows(check_claim):
     assert f.reported == 0.002
 
 
+def test_an_error_no_count_of_circuits_or_samples_reaches_says_so(check_claim):
+    # Linear XEB on 3 qubits (D = 8), F = 0.01 from 10 samples over 2 circuits: the sampling term
+    # alone, (1 + 2F - F^2)/N ~ 0.1, is far above 0.001^2, so neither more samples from 2 circuits
+    # nor more circuits at 10 samples gives the printed error (the sentence once read "it would
+    # take about more circuits and samples than ...").
+    (f,) = floor_findings(check_claim, "linear-xeb", "0.01",
+                          "qubits: 3\nstat_error: 0.001\nsamples: 10\ncircuits: 2\n")
+    assert f.status == "fail" and f.reproduced_by is None
+    assert f.message.endswith("no number of samples from 2 circuits would reach it, nor any number of "
+                              "circuits at 10 samples.")
+
+
+def test_an_error_only_more_circuits_reach_names_the_circuits(check_claim):
+    (f,) = floor_findings(check_claim, "linear-xeb", "0.3",
+                          "qubits: 3\nstat_error: 0.01\nsamples: 1000000\ncircuits: 10\n")
+    assert f.status == "fail"
+    assert "it would take about 3e2 circuits (no number of samples from 10 suffices)." in f.message
+    assert set(f.reproduced_by) == {"circuits"}
+
+
 def test_the_floor_edge_one_digit_at_a_time(check_claim):
     # Floor low end: "0.912" is [0.9115, 0.9125]; sqrt(0.9125 x 0.0875 / 1000) = 0.0089355.
     assert math.sqrt(0.9125 * 0.0875 / 1000) == pytest.approx(0.0089355, abs=1e-7)
@@ -107,8 +127,15 @@ def test_skips_name_what_is_missing(check_claim):
     (f,) = floor_findings(check_claim, "proportion", "0.9", "stat_error: 0.01\n")
     assert f.status == "info" and f.message.startswith("Headline: no samples are printed;")
     assert list(f.details["missing"]) == ["samples"] and f.recomputed == pytest.approx(900)
+    # A mean's floor is sd/sqrt(N) (common practice): with no sd the skip says so too (issue 16).
     (f,) = floor_findings(check_claim, "mean", "0.9", "stat_error: 0.01\n")
-    assert f.status == "skip" and f.message == "Headline: no floor to compare with; needs samples."
+    assert f.status == "skip" and f.message == "Headline: no floor to compare with; needs samples and sd."
+    assert list(f.details["missing"]) == ["samples", "sd"]
+    (f,) = floor_findings(check_claim, "mean", "0.9", "")
+    assert f.message == "Headline: no floor to compare with; needs stat_error, samples and sd."
+    # With sd the count follows instead: (0.2 / 0.01)^2 = 400 samples (se = sd/sqrt(N), common practice).
+    (f,) = floor_findings(check_claim, "mean", "0.9", "stat_error: 0.01\nsd: 0.2\n")
+    assert f.status == "info" and f.recomputed == pytest.approx(400) and "sd" not in f.details["missing"]
     (f,) = floor_findings(check_claim, "proportion", "0.9", "")
     assert f.message == "Headline: no floor to compare with; needs stat_error and samples."
 

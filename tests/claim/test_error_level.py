@@ -75,6 +75,38 @@ def test_the_error_floor_reads_the_one_sigma_error_and_says_so(write_claim):
     assert f["details"]["ratio"] == pytest.approx(1.0, abs=0.01)
 
 
+def test_json_keeps_the_bare_print_and_gives_the_one_sigma_value_its_own_key(write_claim, tmp_path):
+    # Issue 16: printed.text is the print itself; the one standard error is printed.one_sigma
+    # (0.1e-3 / 1.959964 = 5.102e-5, scipy.stats.norm.ppf(0.975)), what it stands for
+    # printed.error_level, and low/high are the print's own digits (0.05e-3 to 0.15e-3). The
+    # floor sqrt((1 + 2F - F^2)/2.5e7) = 2.0e-4 (Boixo et al. 2018) flags the 5.1e-5.
+    text = CLAIM.format(sigma="5.0", level="error_level: 95%").replace("0.392e-3", "0.1e-3")
+    path = write_claim(text)
+    notes, plain = tmp_path / "n.md", tmp_path / "n.txt"
+    out = io.StringIO()
+    status = run(["check", str(path), "--json", "--only", "error-floor", "--markdown", str(notes),
+                  "--plain-text", str(plain)], out, io.StringIO())
+    (f,) = json.loads(out.getvalue())["findings"]
+    assert status == 1 and f["status"] == "fail"
+    printed = f["printed"]
+    assert printed["text"] == "0.1e-3" and printed["error_level"] == "95% half-width"
+    assert printed["one_sigma"] == pytest.approx(0.1e-3 / norm.ppf(0.975), rel=1e-12)
+    assert (printed["low"], printed["high"]) == pytest.approx((0.05e-3, 0.15e-3), rel=1e-12)
+    assert printed["log10_value"] == pytest.approx(-4.0, abs=1e-12)
+    # The human-readable text still shows both.
+    both = "0.1e-3 (95% half-width: 0.0510e-3 at one sigma)"
+    assert both in f["message"]
+    assert f"   - Printed: statistical error `{both}` (field `stat_error`)." in notes.read_text(encoding="utf-8")
+    assert " ".join(plain.read_text(encoding="utf-8").split()).count(f"Printed: statistical error {both}") == 1
+    # A number printed at one sigma has null for both keys.
+    out = io.StringIO()
+    run(["check", str(write_claim(CLAIM.format(sigma="5.0", level=""))), "--json", "--only", "error-floor"],
+        out, io.StringIO())
+    (f,) = json.loads(out.getvalue())["findings"]
+    assert f["printed"]["text"] == "0.392e-3" and f["printed"]["one_sigma"] is None
+    assert f["printed"]["error_level"] is None
+
+
 def test_the_systematic_error_is_converted_too(write_claim):
     # At 95% the one-sigma errors are 0.392e-3 / 1.959964 = 0.2000e-3 and 0.294e-3 / 1.959964 = 0.1500e-3;
     # in quadrature 0.2500e-3, so 1.0e-3 / 0.2500e-3 = 4.0 sigma (arithmetic).

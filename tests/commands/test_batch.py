@@ -32,7 +32,7 @@ def table(tmp_path, *rows, header=HEADER, name="t.csv"):
 def test_example_to_csv(tmp_path):
     out = tmp_path / "out.csv"
     status, stdout, stderr = claimcheck("batch", EXAMPLE, "--out", out)
-    assert status == 1  # three claims fail a check
+    assert status == 2  # three claims fail a check and row 11 cannot be used: 2 beats 1, as in check
     frame = pd.read_csv(out, keep_default_na=False, dtype=str)
     # DESIGN.md's output contract: at least these columns.
     for column in ("source", "title", "verdict", "failed_checks", "sigma_recomputed", "p_recomputed",
@@ -50,14 +50,14 @@ def test_example_to_csv(tmp_path):
 def test_json_and_html_outputs(tmp_path):
     status, _, _ = claimcheck("batch", EXAMPLE, "--out", tmp_path / "out.json")
     data = json.loads((tmp_path / "out.json").read_text())
-    assert status == 1 and data["summary"]["rows"] == 11 and len(data["claims"]) == 11
+    assert status == 2 and data["summary"]["rows"] == 11 and len(data["claims"]) == 11
     claimcheck("batch", EXAMPLE, "--out", tmp_path / "out.html")
     page = (tmp_path / "out.html").read_text()
     assert page.startswith("<!DOCTYPE html>") and page.count("<tr") == 12
 
 
 @pytest.mark.parametrize("rows, status", [((GOOD, GOOD), 0), ((GOOD, "bad,proportion\n"), 2),
-                                          ((FLAWED, GOOD), 1), ((FLAWED, "bad,proportion\n"), 1)])
+                                          ((FLAWED, GOOD), 1), ((FLAWED, "bad,proportion\n"), 2)])
 def test_exit_statuses(tmp_path, rows, status):
     assert claimcheck("batch", table(tmp_path, *rows))[0] == status
 
@@ -165,3 +165,13 @@ def test_the_html_table_scrolls_inside_its_own_box(tmp_path):
     box = page.index('<div class="wide"')
     assert box < page.index("<table>") < page.index("</table>") < page.index("</div>", box)
     assert re.search(r"div\.wide \{[^}]*overflow-x: auto", page)
+
+
+def test_help_ranks_exit_statuses_as_check_does(tmp_path):
+    # The help says what the code does: an unusable row (2) beats a flag (1), as check's worst status.
+    status, out, _ = claimcheck("batch", "--help")
+    text = " ".join(out.split())
+    assert status == 0
+    assert "2 when a row could not be used, else 1 when a claim fails a check, else 0" in text
+    assert claimcheck("batch", table(tmp_path, FLAWED, "bad,proportion\n"))[0] == 2
+    assert claimcheck("batch", table(tmp_path, FLAWED, GOOD))[0] == 1

@@ -28,7 +28,12 @@ def test_text_and_json(tmp_path):
     path = _series(tmp_path / "s.csv")
     status, out, err = _run("drift", path, "--window", "4", "8")
     assert status == 0 and err == ""
-    assert "12 points, window 4 to 8 (5 points)" in out and "rejected" in out
+    first = out.splitlines()[0]
+    assert first == f"Drift of {path}: 12 points, 5 of them in the window 4 to 8" and "rejected" in out
+    # The whole series as the window: each count said once, not "(12 points)" again.
+    status, out, _ = _run("drift", path)
+    first = out.splitlines()[0]
+    assert first == f"Drift of {path}: 12 points, all in the window 0 to 11" and first.count("12") == 1
     status, out, _ = _run("drift", path, "--json", "--level", "0.9")
     d = json.loads(out)
     assert d["slope_interval"]["level"] == 0.9 and d["constant_model"]["rejected"] is True
@@ -74,7 +79,8 @@ def test_date_times_name_their_unit_in_the_window_and_the_slope(tmp_path):
     status, out, _ = _run("drift", path, "--window", "2026-03-01T02:00", "2026-03-01T10:00")
     first, _, slope, *_ = out.splitlines()
     assert status == 0
-    assert first.endswith("window 2 to 10 hours since the first point (2026-03-01T00:00:00) (9 points)")
+    assert first.endswith(": 30 points, 9 of them in the window 2 to 10 hours since the first point "
+                          "(2026-03-01T00:00:00)")
     assert " per hour; " in slope and "per unit time" not in out
     status, out, _ = _run("drift", path, "--json")
     assert json.loads(out)["time_origin"] == "2026-03-01T00:00:00"

@@ -35,6 +35,20 @@ def test_json_keys_follow_the_design():
     assert 355 in [row["samples"] for row in data["table"]]
 
 
+def test_json_keys_in_the_claim_vocabulary_beside_the_first_names():
+    # Issue 16: the keys a claim file uses (estimate, required_sigma, syst_error), with the first
+    # names kept beside them at the same values. The count is Chow, Shao and Wang (2008), section
+    # 3.1 with a systematic: 0.24 (3 + 0.8416)^2 / 0.1^2 = 354.2 -> 355 samples with none; a
+    # systematic of 0.005 only adds to it.
+    data = plan_json("--metric", "proportion", "--estimate", "0.6", "--threshold", "0.5",
+                     "--required-sigma", "3", "--syst-error", "0.005")
+    assert (data["estimate"], data["required_sigma"], data["syst_error"]) == (0.6, 3.0, 0.005)
+    assert (data["fidelity"], data["target_sigma"], data["syst"]) == (0.6, 3.0, 0.005)
+    assert data["samples"] > 355 and data["reachable"] is True
+    keys = list(data)
+    assert keys.index("estimate") < keys.index("fidelity") and keys.index("required_sigma") < keys.index("target_sigma")
+
+
 def test_heavy_output_defaults_reproduce_the_minimum_h_table():
     # Cross et al., Phys. Rev. A 100, 032328 (2019), via REFERENCES.md: 100 circuits need a mean
     # heavy-output probability of 0.75293; 200 circuits 0.72949.

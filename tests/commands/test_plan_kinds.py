@@ -40,6 +40,7 @@ def test_unpaired_items_equal_statsmodels_normal_ind_power():
     ref = NormalIndPower().solve_power(effect_size=es, alpha=stats.norm.sf(3), power=0.8, alternative="larger")
     data = plan_json(*UNPAIRED)
     assert data["kind"] == "two-proportions"
+    assert data["required_sigma"] == data["target_sigma"] == 3
     assert data["items_per_arm"] == math.ceil(ref) == data["samples"]
     # closed form by hand: (3 + 0.8416)^2 (0.913 x 0.087 + 0.890 x 0.110) / 0.023^2
     # = 14.758 x 0.177331 / 0.000529 = 4947.2

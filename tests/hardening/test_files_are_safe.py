@@ -249,7 +249,8 @@ def test_written_files_are_readable_by_others(tmp_path, inputs, umask_022):
               "--out", out / f"d.{s}"] for s in ("csv", "npy", "npz")]
     for argv in runs:
         status, _, stderr = run_cli(argv)
-        assert status in (0, 1), stderr
+        # The example survey's row 11 cannot be used (a thousands separator): the worst status, 2.
+        assert status in ((2,) if argv[0] == "batch" else (0, 1)), stderr
     written = sorted(p.name for p in out.iterdir())
     assert written == ["d.csv", "d.npy", "d.npz", "n.md", "r.html", "s.csv", "s.html", "s.json"]
     for path in out.iterdir():

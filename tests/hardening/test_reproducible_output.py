@@ -56,9 +56,10 @@ def assert_no_timestamp(text: str, allowed: str = "") -> None:
     assert all(f in allowed for f in found), found
 
 
-def twice(tmp_path: Path, argv_of, outputs=()) -> tuple[tuple, dict]:
+def twice(tmp_path: Path, argv_of, outputs=(), statuses=(0, 1)) -> tuple[tuple, dict]:
     """Run the command twice, each into its own folder; the two runs' stdout,
-    stderr, status and written files (by name) must be byte-identical."""
+    stderr, status and written files (by name) must be byte-identical, and the
+    status one of ``statuses``."""
     results = []
     for k in ("a", "b"):
         folder = tmp_path / k
@@ -69,7 +70,7 @@ def twice(tmp_path: Path, argv_of, outputs=()) -> tuple[tuple, dict]:
     assert results[0][0] == results[1][0]
     for name in outputs:
         assert results[0][1][name] == results[1][1][name], name
-    assert results[0][0][0] in (0, 1), results[0][0]
+    assert results[0][0][0] in statuses, results[0][0]
     return results[0]
 
 
@@ -98,7 +99,9 @@ def test_check_html_is_reproducible(tmp_path, claim):
 @pytest.mark.parametrize("suffix", [".csv", ".json", ".html"])
 def test_batch_is_reproducible(tmp_path, suffix):
     name = f"summary{suffix}"
-    (status, out, err), files = twice(tmp_path, lambda folder: ["batch", SURVEY, "--out", folder / name], [name])
+    # The example survey's row 11 cannot be used (a thousands separator), so the worst status is 2.
+    (status, out, err), files = twice(tmp_path, lambda folder: ["batch", SURVEY, "--out", folder / name], [name],
+                                      statuses=(2,))
     assert files[name]
     assert_no_timestamp(files[name].decode())
     assert_no_timestamp(out + err)

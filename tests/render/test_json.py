@@ -45,7 +45,8 @@ def test_self_describing_keys():
     d = strict(render_json(Report("t", "c.yaml", (f,))))["findings"][0]
     assert d["field"] == "significance.p_value" and d["statement"] == "p_vs_inputs"
     assert d["printed"] == {"text": "1e-400", "low": 0.0, "high": 0.0, "log10_low": -400.30103,
-                            "log10_high": -399.82391, "log10_value": None}
+                            "log10_high": -399.82391, "log10_value": None,
+                            "one_sigma": None, "error_level": None}  # set only for an error at error_level
     # log10 p beside the p (issue 16): the printed value's own log when the finding has one.
     assert d["log10_recomputed"] == {"low": -402.1, "high": -401.7}
     assert d["recomputed_range"] == {"low": -402.1, "high": -401.7, "scale": "log10"}

@@ -46,3 +46,33 @@ def test_drift_text():
     assert "Drift of series.csv: 6 points" in text
     assert "slope" in text and "systematic" in text and "chi2 =" in text
     assert "A constant value over time: rejected" in text
+
+
+def test_one_slip_is_one_entry_in_the_terminal_text(tmp_path):
+    """Through the CLI: the invented sidedness slip of tests/render/test_raw_markdown.py (z =
+    (0.480 - 0.380)/0.036 = 2.778, printed p 5.4e-3 the two-sided value: scipy.stats.norm.sf
+    times 2) gives two flags that one convention explains; they are one entry, said once."""
+    import io
+
+    from checker.cli import run
+
+    data = tmp_path / "sim.npz"
+    assert run(["simulate", "--qubits", "9", "--circuits", "3", "--samples", "800", "--fidelity", "0.5",
+                "--seed", "2", "--out", str(data)], io.StringIO(), io.StringIO()) == 0
+    claim = tmp_path / "slip.yaml"
+    claim.write_text("# Invented scenario: made-up lab and numbers.\ntitle: Invented raw-data sidedness slip\n"
+                     "metric: linear-xeb\nqubits: 9\nestimate: 0.480\nstat_error: 0.036\nsamples: 2400\n"
+                     "circuits: 3\nthreshold: 0.380\nsignificance: {sigma: 2.78, p_value: 5.4e-3, sided: one}\n",
+                     encoding="utf-8")
+    out = io.StringIO()
+    assert run(["raw", str(data), "--claim", str(claim), "--bootstrap", "200"], out, io.StringIO()) == 1
+    lines = out.getvalue().split("Against the claim ")[1].splitlines()
+    at = next(i for i, line in enumerate(lines) if "One slip explains" in line)
+    assert lines[at] == ("FLAG  significance    One slip explains 2 findings: the print would follow under "
+                         "the two-sided convention (both tails).")
+    assert lines[at + 1].startswith(" " * 22 + "- Printed 2.78 sigma is p = 0.0027 to 0.0028 one-sided")
+    assert lines[at + 2].startswith(" " * 22 + "- Printed p = 5.4e-3, but estimate, threshold and errors give "
+                                    "p = 0.0023 to 0.0032")
+    # Each of the two is said once (not again on a line of its own), and the count still counts both.
+    assert sum("Printed 2.78 sigma is p = 0.0027" in line for line in lines) == 1
+    assert "verdict: inconsistent (6 flagged" in out.getvalue()

@@ -38,7 +38,7 @@ def test_example_table_verdicts(example):
                                         "separators; write the digits without commas")
     assert example.summary["verdicts"] == {"consistent": 7, "inconsistent": 3, "incomplete": 0}
     assert example.summary["unusable"] == 1
-    assert example.exit_status == 1
+    assert example.exit_status == 2  # the unusable row 11 beats the three flags, as in check
 
 
 def test_recomputed_columns_are_the_significance_check_at_the_printed_values(example):
@@ -149,10 +149,10 @@ def test_a_bad_row_is_reported_and_the_batch_goes_on(tmp_path):
     assert list(result.frame["verdict"]) == ["consistent", "unusable", "consistent", "inconsistent"]
     assert result.problems == (f"{tmp_path / 't.csv'} row 2: metric (line 3): metric is 'fidelity'; "
                                "allowed: linear-xeb | log-xeb | heavy-output | proportion | mean | counts",)
-    assert result.exit_status == 1
+    assert result.exit_status == 2  # an unusable row beats a flag, as in check
 
 
-@pytest.mark.parametrize("rows, status", [([GOOD, GOOD], 0), ([GOOD, BAD], 2), ([FLAWED, BAD], 1)])
+@pytest.mark.parametrize("rows, status", [([GOOD, GOOD], 0), ([GOOD, BAD], 2), ([FLAWED, BAD], 2), ([FLAWED], 1)])
 def test_exit_status(tmp_path, rows, status):
     assert run_batch(_table(tmp_path, rows)).exit_status == status
 
