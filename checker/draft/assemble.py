@@ -46,7 +46,7 @@ class _Builder:
         self.fallbacks: list[tuple] = []  # (Mention, quote, heading, order) for the estimate
         self.single_error: list[Field] = []
         self.error_words: dict = {}  # id(Field) -> ("sd" | "sem", quote): words after a lone ± naming it
-        self.points: list[tuple] = []  # (Number, quote, rule): a difference printed in points
+        self.points: list[tuple] = []  # (Number, quote, rule, heading): a difference printed in points
         self.order = 0
 
     def add(self, path, value, quote, rule, guess="", heading=False, computed=False):
