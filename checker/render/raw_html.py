@@ -23,7 +23,7 @@ from typing import Iterable, Sequence
 from ..report import Finding, Report
 from .page import figure_html, html_page, status_mark, table_html, tile, verdict_panel
 from ..wording import num, p_cell
-from .notes import make_point, one_line, title_of
+from .notes import make_point, one_line, shared_point, slip_groups, title_of
 from ..vocabulary import RESAMPLING_NAMES
 from .raw_text import AT_WORDS, METRIC_WORDS, TEST_WORDS, visible_findings
 
@@ -178,6 +178,22 @@ def _card(n: int, f: Finding) -> str:
             + (f'<dl class="cc-facts">{dl}</dl>' if dl else "") + "</article>")
 
 
+def _shared_card(n: int, group: list[Finding]) -> str:
+    """The findings one slip explains: one card, each finding listed, one question
+    (the claim page's and the raw Markdown's grouping, :func:`notes.slip_groups`)."""
+    s = shared_point(group)
+    named = len({_heading(f) for f in group}) > 1
+    items = "".join(f"<li>{status_mark(f.status)}<span>"
+                    + (f'<span class="cc-what">{escape(_heading(f))}</span>' if named else "")
+                    + f"{escape(one_line(f.message))}</span></li>" for f in group)
+    facts = [("Would follow", s.reproduced), ("Ask the authors", s.question)]
+    dl = "".join(f"<dt>{escape(k)}</dt><dd>{escape(one_line(v))}</dd>" for k, v in facts if v)
+    return (f'<article class="cc-point cc-{s.status}" id="finding-{n}">'
+            f'<h3><span class="cc-num">{n}</span>{escape(s.heading)} {status_mark(s.status)}</h3>'
+            f'<p class="cc-message">{escape(s.opening)}</p><ul class="cc-list">{items}</ul>'
+            f'<dl class="cc-facts">{dl}</dl></article>')
+
+
 def _brief(findings: Iterable[Finding]) -> str:
     rows = [f"<li>{status_mark(f.status)}<span><span class=\"cc-what\">{escape(_heading(f))}</span>"
             f"{escape(one_line(f.message))}</span></li>" for f in findings]
@@ -186,11 +202,12 @@ def _brief(findings: Iterable[Finding]) -> str:
 
 def _findings_section(findings: Sequence[Finding]) -> str:
     shown, same = visible_findings(findings)
-    raised = [f for f in shown if f.status in ("fail", "warn")]
+    raised = slip_groups(shown)  # one slip, one point, as in the claim's notes
     rest = [f for f in shown if f.status in ("pass", "info", "skip")]
     out = []
     if raised:
-        out.append("\n".join(_card(n, f) for n, f in enumerate(raised, 1)))
+        out.append("\n".join(_card(n, g[0]) if len(g) == 1 else _shared_card(n, g)
+                              for n, g in enumerate(raised, 1)))
     else:
         out.append(_note("Nothing to raise: no finding is a flag or a note."))
     if rest:

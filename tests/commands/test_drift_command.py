@@ -33,7 +33,7 @@ def test_text_and_json(tmp_path):
     # The whole series as the window: each count said once, not "(12 points)" again.
     status, out, _ = _run("drift", path)
     first = out.splitlines()[0]
-    # (counted after the path: pytest's temporary folder name may hold "12" too)
+    # (counted after the path: a temporary folder such as pytest-120 holds "12" itself)
     assert first == f"Drift of {path}: 12 points, all in the window 0 to 11"
     assert first[len(f"Drift of {path}"):].count("12") == 1
     status, out, _ = _run("drift", path, "--json", "--level", "0.9")

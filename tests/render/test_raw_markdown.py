@@ -104,3 +104,23 @@ def test_one_slip_is_one_point_in_the_raw_notes(files):
     assert "   - Printed p = 5.4e-3, but estimate, threshold and errors give p = 0.0023 to 0.0032" in first
     # The raw-number reruns no convention reproduces stay points of their own, named as such.
     assert "**Significance (with the raw data's numbers)** (flag)" in points.split("\n2. ", 1)[1]
+
+
+def test_one_slip_is_one_card_in_the_raw_page(files):
+    """The raw HTML page groups as the raw Markdown does: the sidedness slip's two flags
+    (SLIP above) share one card with one question; the other flags have a card each."""
+    folder, data, _ = files
+    claim, out = folder / "slip_page.yaml", folder / "slip.html"
+    claim.write_text(SLIP, encoding="utf-8")
+    status = run(["raw", str(data), "--claim", str(claim), "--html", str(out), "--bootstrap", "200",
+                  "--fit-sample", "1000"], io.StringIO(), io.StringIO())
+    assert status == 1
+    page = out.read_text(encoding="utf-8")
+    cards = page.split('<article class="cc-point')[1:]
+    assert len(cards) == 4  # five flags shown, two of them one slip
+    first = cards[0]
+    assert "One slip explains 2 findings: the print would follow under the two-sided convention" in first
+    assert first.count("<dt>Ask the authors</dt>") == 1
+    assert "Printed 2.78 sigma is p = 0.0027 to 0.0028 one-sided" in first
+    assert "Printed p = 5.4e-3, but estimate, threshold and errors give p = 0.0023 to 0.0032" in first
+    assert all(f'id="finding-{n}"' in page for n in range(1, 5)) and 'id="finding-5"' not in page
