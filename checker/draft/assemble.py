@@ -4,10 +4,10 @@ numbers printed twice, the numbers left out, and the fields a check would
 still need.
 
 Nothing is invented: a field holds a number the text prints, in the digits
-it prints.  Three fields are computed from printed numbers, each with a
-comment saying so: a proportion printed only as ``k/N`` (its decimal digits),
-a threshold printed as a fraction (``2/3``), and the signal yield of a
-counting experiment when the schema insists on an estimate.
+it prints.  Two fields are computed from printed numbers, each with a
+comment saying so: a proportion printed only as ``k/N`` (its decimal digits)
+and a threshold printed as a fraction (``2/3``).  A counting experiment needs
+no estimate, so its signal yield is never computed.
 """
 
 from __future__ import annotations
@@ -45,6 +45,8 @@ class _Builder:
         self.deferred: list[tuple] = []  # (role, Field-like args) resolved after the metric
         self.fallbacks: list[tuple] = []  # (Mention, quote, heading, order) for the estimate
         self.single_error: list[Field] = []
+        self.error_words: dict = {}  # id(Field) -> ("sd" | "sem", quote): words after a lone ± naming it
+        self.points: list[tuple] = []  # (Number, quote, rule, heading): a difference printed in points
         self.order = 0
 
     def add(self, path, value, quote, rule, guess="", heading=False, computed=False):
@@ -52,7 +54,8 @@ class _Builder:
         self.fields.append(Field(tuple(path), value, quote, rule, guess, heading, self.order, computed))
 
     # Numbers printed with errors go to a field and its error fields.
-    def measurement(self, m: Mention, base: tuple, error: tuple, quote, rule, heading, syst=None):
+    def measurement(self, m: Mention, base: tuple, error: tuple, quote, rule, heading, syst=None,
+                    words=None):
         self.add(base, m.value, quote, rule, " ".join(m.notes), heading)
         if m.minus is not None:
             self.add(error, m.minus, quote, rule,
@@ -90,6 +93,8 @@ class _Builder:
             self.add(path, err, quote, rule, guess, heading)
             if path == ("stat_error",) and not label and len(m.errors) == 1:
                 self.single_error.append(self.fields[-1])
+                if words:
+                    self.error_words[id(self.fields[-1])] = words
 
     def place(self, role: str, m: Mention, sentence: Sentence, quote: str, rule: str):
         heading = sentence.heading
@@ -98,7 +103,8 @@ class _Builder:
         v = m.value
         if role == "estimate":
             if m.kind == R.MEASUREMENT:
-                self.measurement(m, ("estimate",), ("stat_error",), quote, rule, heading)
+                self.measurement(m, ("estimate",), ("stat_error",), quote, rule, heading,
+                                 words=_error_words(sentence.text, m))
             elif m.kind == R.RATIO:
                 self.ratio(m, quote, rule, heading)
             else:
@@ -125,6 +131,12 @@ class _Builder:
             if label:
                 self.add(("baseline", "label"), " ".join(label.group().lower().split()), quote, rule,
                          heading=heading)
+        elif role == "difference_points":
+            plus = sentence.text[m.start:m.start + 1] == "+"
+            if plus or comparison or R.BASELINE_CUE.search(sentence.text):
+                self.points.append((v, quote, rule, heading))
+            else:
+                self.fallbacks.append((m, sentence, quote))
         elif role == "operand":
             self.unplaced.append((v.text, quote, "printed after a multiplication sign (a power of ten "
                                   "whose superscript was lost in copying?)"))
@@ -162,7 +174,10 @@ class _Builder:
         elif role in ("instances", "shared_samples"):
             self.deferred.append((role, v, quote, rule, heading))
         elif role == "per_part":
-            self.unplaced.append((v.text, quote, "a count for each part, not the total behind the estimate"))
+            if comparison or R.BASELINE_CUE.search(sentence.text):
+                self.deferred.append(("each_samples", v, quote, rule, heading))
+            else:
+                self.unplaced.append((v.text, quote, "a count for each part, not the total behind the estimate"))
         elif role in ("discordant_ours", "discordant_theirs", "discordant"):
             if m.kind == R.PAIR:
                 for n in (m.low, m.high):
@@ -199,6 +214,23 @@ class _Builder:
             self.add(("interval", "level"), m.level, quote, rule, guess, heading)
         else:
             self.notes.append("interval: no confidence level is printed beside it; the loader takes 0.95")
+
+
+def _error_words(text: str, m: Mention) -> tuple | None:
+    """("sd" | "sem", quote) when the words right after a value with one
+    unlabelled error, or its sentence, say what the error is."""
+    if len(m.errors) != 1 or m.errors[0][1]:
+        return None
+    for kind, after in (("sem", R.SEM_AFTER), ("sd", R.SD_AFTER)):
+        hit = after.match(text, m.end)
+        if hit:
+            return kind, clip(text, max(0, m.start - 30), hit.end())
+    for kind, anywhere in (("sem", R.SEM_SENTENCE), ("sd", R.SD_SENTENCE)):
+        hit = anywhere.search(text)
+        if hit:
+            return kind, printable(clip(text, max(0, m.start - 20), m.end) + " ... " + clip(
+                text, hit.start(), hit.end()), QUOTE_LIMIT)
+    return None
 
 
 def _fraction_text(m: Mention, exact: bool) -> Number:
@@ -568,14 +600,25 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
         metric_guess = ("the text names no metric; " + (
             "a percentage reads as a proportion" if pct else "a count out of a whole reads as a proportion"
             if ratio else "mean is the model that assumes least (a per-sample sd is then needed)"))
-    if ("observed",) in have or ("background",) in have:
+    named_background = any(f.path == ("background",) and f.rule not in R.WEAK_BACKGROUND for f in fields)
+    if ("observed",) in have or named_background:
         if metric != "counts":
             metric_guess = "events over a background: a counting experiment"
         metric = "counts"
     add(("metric",), metric, metric_quote, metric_rule[0].name if metric_rule else "metric-guess", metric_guess)
     if metric == "mean":
         for f in b.single_error:
-            if f in fields:
+            if f not in fields:
+                continue
+            words = b.error_words.get(id(f))
+            if words and words[0] == "sd" and ("sd",) not in have:
+                # The words say the ± is the spread of the runs, not the error of their mean.
+                fields[fields.index(f)] = replace(f, path=("sd",), quote=words[1])
+                have.discard(("stat_error",))
+                have.add(("sd",))
+            elif words and words[0] == "sem":
+                fields[fields.index(f)] = replace(f, quote=words[1])
+            else:
                 fields[fields.index(f)] = replace(
                     f, guess="one error printed without a label: read as the standard error of the mean; "
                     "if it is the spread of the runs, rename the field sd")
@@ -590,6 +633,15 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
                 add(("samples",), value, quote, rule)
             if ("baseline", "estimate") in have and ("baseline", "samples") not in have:
                 add(("baseline", "samples"), value, quote, rule, "the same items as the estimate")
+        elif role == "each_samples":
+            if ("baseline", "estimate") in have and not any(p[0] in ("parts", "circuits") for p in have):
+                guess = f"printed as {value.text} each: read as the items behind each of the two results"
+                if ("samples",) not in have:
+                    add(("samples",), value, quote, rule, guess)
+                if ("baseline", "samples") not in have:
+                    add(("baseline", "samples"), value, quote, rule, guess)
+            else:
+                unplaced.append((value.text, quote, "a count for each part, not the total behind the estimate"))
         elif role == "paired":
             if ("baseline", "estimate") in have and ("comparison", "paired") not in have:
                 add(("comparison", "paired"), value, quote, rule)
@@ -617,10 +669,27 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
         group = "comparison" if (comparison and baseline) or (baseline and not any(
             p[0] == "significance" and p[1] in ("sigma", "p_value") for p in have)) else "significance"
         add((group, "sided"), value, quote, rule)
+    # A difference printed in points: percentage points when the two results are percentages.
+    if b.points and baseline and ("comparison", "difference") not in have:
+        v, quote, rule, heading = b.points[0]
+        estimate = next((f for f in fields + extra if f.path == ("estimate",)), None)
+        pct = estimate is not None and isinstance(estimate.value, Number) and estimate.value.percent
+        if pct:
+            add(("comparison", "difference"), Number(v.text + "%", v.value / 100), quote, rule,
+                f"printed as {v.text} points: read as percentage points, since the results are printed in percent")
+        else:
+            add(("comparison", "difference"), v, quote, rule)
+    elif b.points:
+        unplaced.extend((v.text, quote, "a difference in points, but no baseline is printed")
+                        for v, quote, _, _ in b.points)
     # Discordant counts: two of them, ours first.
     if b.discordant and baseline:
         ds = sorted(b.discordant, key=lambda f: f.order)[:2]
         if len(ds) == 2:
+            if ("comparison", "paired") not in have:
+                add(("comparison", "paired"), True, ds[0].quote, ds[0].rule,
+                    "the text does not say paired, but prints discordant counts, which only a comparison "
+                    "on the same items has")
             guess = ("the counts name no side: the first printed is taken as the items only the claim's "
                      "method got right" if ds[0].rule in ("discordant", "discordant-only-by") else "")
             add(("comparison", "discordant"), (ds[0].value, ds[1].value),

@@ -10,14 +10,12 @@ dropped: the draft stops with one line instead.
 from __future__ import annotations
 
 from dataclasses import replace
-from decimal import Decimal, InvalidOperation
 
 from ..claim import claim_from_document
 from ..claim.load import parse_text
 from ..errors import ClaimcheckError
-from .model import Draft, DraftError, Field
+from .model import Draft, DraftError
 from .needs import missing as still_needed
-from .notation import Number
 from .writer import render_yaml
 
 MAX_ROUNDS = 200
@@ -27,24 +25,6 @@ def _path(text: str) -> tuple:
     if not text or text.startswith("("):
         return ()
     return tuple(int(p) if p.isdigit() else p for p in text.split("."))
-
-
-def _yield(draft: Draft) -> Field | None:
-    """observed - background, for a counting experiment whose schema wants an
-    estimate the text does not print."""
-    observed, background = draft.get(("observed",)), draft.get(("background",))
-    if observed is None or background is None:
-        return None
-    try:
-        a = Decimal(observed.value.text)
-        b = Decimal(background.value.text)
-    except (InvalidOperation, AttributeError):
-        return None
-    text = format(a - b, "f")
-    return Field(("estimate",), Number(text, float(a - b)), f"{observed.value.text} observed over a background "
-                 f"of {background.value.text}", "counts-yield",
-                 "computed: observed - background (the signal yield); the text prints no estimate and the "
-                 "claim schema asks for one", False, 0)
 
 
 def make_loadable(draft: Draft) -> tuple[Draft, str]:
@@ -72,12 +52,8 @@ def make_loadable(draft: Draft) -> tuple[Draft, str]:
             path = _path(exc.path)
             problem = exc.problem + (f"; {exc.allowed}" if exc.allowed and len(exc.allowed) < 80 else "")
             if not path and "estimate" in exc.problem and draft.get(("estimate",)) is None:
-                estimate = _yield(draft)
-                if estimate is None:
-                    raise DraftError(draft.name, "prints no number that reads as the estimate",
-                                     "paste the sentence with the result") from None
-                draft = replace(draft, fields=draft.fields + (estimate,))
-                continue
+                raise DraftError(draft.name, "prints no number that reads as the estimate",
+                                 "paste the sentence with the result") from None
             if not path or path[0] in ("title", "metric", "estimate"):
                 what = draft.get(("metric",))
                 if path[:1] == ("metric",) and what is not None:

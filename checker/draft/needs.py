@@ -12,7 +12,7 @@ NEEDS = (
     (("qubits",), "the XEB metrics take the dimension D = 2**qubits (error-floor, bounds)",
      lambda d, m: m in ("linear-xeb", "log-xeb")),
     (("stat_error",), "error-floor and significance need the standard error as printed",
-     lambda d, m: m != "counts" and not d("interval", "low")),
+     lambda d, m: m != "counts" and not d("interval", "low") and not (m == "mean" and d("sd") and d("samples"))),
     (("samples",), "error-floor needs the samples behind the estimate (shots, test items, runs)",
      lambda d, m: m not in ("heavy-output", "counts")),
     (("circuits",), "heavy output's standard error comes from the number of circuits",
@@ -27,8 +27,7 @@ NEEDS = (
      lambda d, m: d("significance", "sigma") or d("significance", "p_value")),
     (("baseline", "stat_error"), "comparison needs the baseline's own error (or its samples)",
      lambda d, m: d("baseline", "estimate") and not d("baseline", "samples")),
-    (("comparison", "paired"), "comparison needs to know whether both were measured on the same items",
-     lambda d, m: d("baseline", "estimate")),
+    # comparison.paired, when not printed, is written as the default with a guess (writer.py).
     (("comparison", "discordant"), "a paired comparison of proportions needs the two discordant counts",
      lambda d, m: d("baseline", "estimate") and d("comparison", "paired")),
     (("background_error",), "the background's own uncertainty, if printed",

@@ -119,14 +119,19 @@ TRIAL_NOUNS = (r"configurations?|settings?|variants|attempts|hyper-?parameter\s+
                r"looks|bins")
 _PER_PART = rf"(?:{SAMPLE_NOUNS}|{CIRCUIT_NOUNS})\s+(?:each|apiece|per\s+(?:circuit|instance|part|family|patch|configuration|setting|seed|run))"
 
+# Words for an item one method got right ("58 utterances were right only for ours").
+_RIGHT_WORDS = r"(?:right|correct|correctly\s+answered|answered|solved|passed)"
+
 RIGHT = (
     Rule("count-per-part", "per_part", NUMBERS, "right", _noun(_PER_PART), REFERENCE,
          "Each of the 12 circuits ran 2.0 × 10^6 samples each, giving 0.0018 ± 0.0002.", whole=True),
     Rule("discordant-ours", "discordant_ours", NUMBERS, "right",
-         rf"\s+(?:{_GAP}\s+){{0,2}}(?:that\s+|which\s+|where\s+)?only\s+(?:ours|our\b|we\b|the\s+new|the\s+proposed|our\s+\w+)",
+         rf"\s+(?:{_GAP}\s+){{0,2}}(?:(?:that|which|where|were|was|are|is)\s+)?(?:{_RIGHT_WORDS}\s+)?only\s+"
+         r"(?:(?:for|by|with|to)\s+)?(?:ours|our\b|we\b|the\s+new|the\s+proposed|our\s+\w+)",
          UNIT, "There are 58 items only ours got right and 30 only the baseline got right.", whole=True),
     Rule("discordant-theirs", "discordant_theirs", NUMBERS, "right",
-         rf"\s+(?:{_GAP}\s+){{0,2}}(?:that\s+|which\s+|where\s+)?only\s+(?:the\s+)?(?:baseline|previous|old|reference|theirs|they\b)",
+         rf"\s+(?:{_GAP}\s+){{0,2}}(?:(?:that|which|where|were|was|are|is)\s+)?(?:{_RIGHT_WORDS}\s+)?only\s+"
+         r"(?:(?:for|by|with|to)\s+)?(?:the\s+)?(?:baseline|previous|old|reference|theirs|they\b)",
          UNIT, "There are 58 items only ours got right and 30 only the baseline got right.", whole=True),
     Rule("discordant-only-by", "discordant", NUMBERS, "right",
          rf"\s+(?:{_GAP}\s+){{0,3}}?only\s+(?:by|with|for)\b", UNIT,
@@ -141,7 +146,14 @@ RIGHT = (
          "From 2.5 × 10^7 samples we find 0.0018 ± 0.0002.", whole=True),
     Rule("count-trials", "trials", NUMBERS, "right", _noun(TRIAL_NOUNS), UNIT,
          "The best of 24 coupler settings reaches 0.0029 ± 0.0009.", whole=True),
-    Rule("count-events", "observed", NUMBERS, "right", _noun(r"events?|counts?(?!\s+of)|candidate\s+events"), UNIT,
+    Rule("background-after", "background", NUMBERS, "right",
+         r"\s+(?:(?:events?|counts?)\s+)?(?:expected\s+)?background(?:\s+(?:events?|counts?))?\b",
+         UNIT, "The invented search expects 30.2 ± 3.1 background events and observes 47."),
+    Rule("background-expected", "background", NUMBERS, "right",
+         r"\s+(?:(?:events?|counts?)\s+)?(?:(?:are|were|is|was)\s+)?expected\b",
+         UNIT, "We observe 47 events where 30.2 ± 3.1 are expected, a 2.9σ excess."),
+    Rule("count-events", "observed", NUMBERS, "right",
+         _noun(r"events?|counts?(?!\s+of)|candidate\s+events|candidates"), UNIT,
          "We observe 47 events over an expected background of 30.2 ± 3.1.", whole=True),
     Rule("count-upcrossings", "upcrossings", NUMBERS, "right", _noun(r"up-?crossings?"), UNIT,
          "The scan shows 2 upcrossings at the 0.5σ level.", whole=True),
@@ -160,6 +172,9 @@ RIGHT = (
          UNIT, "The best setting shows 3.2σ, or 2.1σ after the look-elsewhere correction."),
     Rule("sigma-local-after", "sigma", _kinds(SIGMA), "right", r"\s*\(?\s*local(?:ly)?\b",
          UNIT, "The best setting shows 3.2σ local and 2.1σ global significance."),
+    Rule("difference-points", "difference_points", _kinds(VALUE), "right",
+         r"\s*(?:points?|pts?\.?)(?!\w)", UNIT,
+         "The invented Plover model reaches 91.3% against the previous best's 89.0%, +2.3 points."),
     Rule("threshold-after", "threshold", NUMBERS, "right",
          r"\s*(?:threshold|bound|limit|cut-?off|target|criterion)\b",
          UNIT, "The accuracy of 0.913 ± 0.008 beats the 0.85 target."),
@@ -197,6 +212,12 @@ LEFT = (
     Rule("same-items", "shared_samples", NUMBERS, "left", r"\bsame\s*$", UNIT + 1,
          "We reach 91.3% against the previous best's 89.0% on the same 1,200 test items.",
          reach=0, whole=True),
+    Rule("background-symbol", "background", NUMBERS, "left",
+         r"(?<![\w.])(?:b|n_?b|b_?exp|n_?bkg|bkg|n_?bg)\s*=\s*$", REFERENCE,
+         "The invented counter sees n_obs = 47 with b = 30.2 ± 3.1, Z = 2.9.", reach=0),
+    Rule("signal-yield", "estimate", NUMBERS, "left",
+         r"\b(?:signal(?:\s+yield)?|excess|yield)\s*(?:of|is|was|=|:)?\s*$", UNIT + 0.5,
+         "Over a background of 30.2 ± 3.1 the invented counter sees a signal yield of 16.8 ± 7.4.", reach=0),
     Rule("observed", "observed", NUMBERS, "left", r"\b(?:observ(?:e|es|ed|ing)|n_?obs\s*=)\s*$", STRONG,
          "Over an expected background of 30.2 ± 3.1 we observe 47.", reach=0, whole=True),
     Rule("sigma-required-before", "required_sigma", _kinds(SIGMA), "left",
@@ -236,7 +257,7 @@ LEFT = (
          r"\s*(?:of|is|was|=|:)?\s*(?:±\s*)?$|(?:^|\s)±\s*$",
          STRONG, "The fidelity is 0.0018 with a statistical error of 0.0002.", reach=0),
     Rule("sd", "sd", NUMBERS, "left",
-         r"\b(?:standard\s+deviation|s\.d\.|sd|std\.?(?:\s+dev\.?)?|spread|scatter)\b[^.\d]{0,25}$",
+         r"\b(?:standard\s+deviation|s\.d\.|sd|std\.?(?:\s+dev\.?)?|spread|scatter)\b[^.\d,;)]{0,25}$",
          STRONG, "The mean ratio is 0.874 with a per-instance standard deviation of 0.052."),
     Rule("factor", "factor", NUMBERS, "left",
          r"\b(?:factor|scaled\s+by|multiplied\s+by|extrapolat\w*|correction)\b", STRONG,
@@ -311,7 +332,7 @@ TEXT = (
          r"\bunpaired\b|\bindependent\s+(?:test\s+)?(?:samples|sets|test\s+sets)\b|\bdifferent\s+test\s+sets\b",
          STRONG, "The two models were scored on independent test sets of 1,200 items."),
     Rule("paired-yes", "paired", frozenset(), "text",
-         r"\bpaired\b|\bsame\s+(?:[\d,]+\s+)?(?:test\s+)?(?:items|examples|questions|images|samples|problems|instances|set|clips)\b",
+         rf"\bpaired\b|\bsame\s+(?:[\d,]+\s+)?(?:test\s+)?(?:{SAMPLE_NOUNS}|instances|set|test\s+set)\b",
          STRONG, "Both were measured on the same 1,200 test items."),
     Rule("method-inverse-variance", "method", frozenset(), "text",
          r"\binverse[- ]variance\b|\bweighted\s+by\s+(?:the\s+)?(?:inverse\s+)?(?:of\s+)?(?:their\s+)?variances?\b"
@@ -364,6 +385,28 @@ METRIC_OF_RULE = {"metric-log-xeb": "log-xeb", "metric-linear-xeb": "linear-xeb"
 # A metric named by the word "fidelity" alone (a guess: fidelity is also a
 # GHZ or state fidelity).
 FIDELITY_WORD = re.compile(r"\bfidelit(?:y|ies)\b", re.I)
+
+# A background read from words that do not say "background" ("30.2 are expected", "b = 30.2"):
+# it makes the claim a counting experiment only beside an observed count.
+WEAK_BACKGROUND = frozenset({"background-expected", "background-symbol"})
+
+# A baseline named in a sentence ("+2.3 points" is a difference only beside one).
+BASELINE_CUE = re.compile(
+    r"\b(?:baselines?|previous|prior|state[- ]of[- ]the[- ]art|against|versus|vs\.?|compared|over)\b", re.I)
+
+# Words right after a value with one unlabelled error, or anywhere in its
+# sentence, that say the error is the spread of the runs (sd) or the error of
+# their mean (sem): "71.3 ± 1.2 (standard deviation over 5 seeds)", "mean ± SD".
+_SD_WORDS = r"(?:standard\s+deviations?|s\.\s?d\.?|sd|std\.?(?:\s*dev\.?)?|spread)"
+_SEM_WORDS = r"(?:standard\s+errors?(?:\s+of\s+the\s+mean)?|s\.\s?e\.(?:\s?m\.)?|sem|s\.e\.m\.?|std\.?\s+err(?:or)?)"
+SD_AFTER = re.compile(rf"\s*[(\[,]?\s*(?:mean\s*±\s*)?(?:±\s*)?(?:(?:one|1)\s+)?(?:the\s+)?{_SD_WORDS}(?![\w])", re.I)
+SEM_AFTER = re.compile(rf"\s*[(\[,]?\s*(?:mean\s*±\s*)?(?:±\s*)?(?:(?:one|1)\s+)?(?:the\s+)?{_SEM_WORDS}(?![\w])", re.I)
+SD_SENTENCE = re.compile(
+    rf"\bmean\s*±\s*{_SD_WORDS}(?![\w])|±\s*(?:is|are|denotes?|gives?|shows?)\s+(?:the\s+|one\s+)?{_SD_WORDS}(?![\w])"
+    rf"|\berrors?(?:\s+bars?)?\s+(?:are|is|denote|show)\s+(?:the\s+|one\s+)?{_SD_WORDS}(?![\w])", re.I)
+SEM_SENTENCE = re.compile(
+    rf"\bmean\s*±\s*{_SEM_WORDS}(?![\w])|±\s*(?:is|are|denotes?|gives?|shows?)\s+(?:the\s+|one\s+)?{_SEM_WORDS}(?![\w])"
+    rf"|\berrors?(?:\s+bars?)?\s+(?:are|is|denote|show)\s+(?:the\s+|one\s+)?{_SEM_WORDS}(?![\w])", re.I)
 
 # Words that put a sigma or p printed in their sentence on the comparison
 # with a baseline rather than on the threshold.

@@ -51,6 +51,10 @@ HEADER = (
 )
 
 
+PAIRED_GUESS = ("# guess: the text does not say whether both were measured on the same items; the checks "
+                "take unpaired (the default); write 'paired: true' if they were")
+
+
 def scalar(value) -> str:
     """One value as the claim loader reads it."""
     if isinstance(value, bool):
@@ -111,10 +115,14 @@ def render_yaml(draft: Draft) -> str:
 def _section(key: str, draft: Draft, missing: dict) -> list[str]:
     fields = {f.path[1]: f for f in draft.fields if f.path[0] == key and len(f.path) == 2}
     wanted = [(sub, why) for (head, *rest), why in missing.items() if head == key and rest for sub in rest]
+    unpaired = (key == "comparison" and "paired" not in fields
+                and any(f.path == ("baseline", "estimate") for f in draft.fields))
     if not fields:
-        if not wanted:
+        if not wanted and not unpaired:
             return []
         out = [f"# {key}:"]
+        if unpaired:
+            out.append("#   paired: false    " + PAIRED_GUESS)
         out += [_commented(f"#   {sub}:", why) for sub, why in wanted]
         return out
     out = [f"{key}:"]
@@ -123,6 +131,8 @@ def _section(key: str, draft: Draft, missing: dict) -> list[str]:
             f = fields[sub]
             out += _guess("  ", f)
             out.append(_line("  ", sub, scalar(f.value), _quote(f)))
+    if unpaired:
+        out.append("  # paired: false    " + PAIRED_GUESS)
     for sub, why in wanted:
         out.append(_commented(f"  # {sub}:", why))
     if key in ("significance", "comparison") and "sided" not in fields and ({"sigma", "p_value"} & set(fields)):

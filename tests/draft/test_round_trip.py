@@ -25,8 +25,9 @@ ROOT = Path(__file__).resolve().parents[2]
 # hold them are left out of the round trips, and test_drafts_say_nothing_of_a_table_of_counts checks
 # that a draft of such prose invents no counts or rates.
 NOT_DRAFTED = {"counts_table", "rates"}
-# Nor the fields of a comparison or a counting experiment, nor a claim without an estimate (issue 14):
-# those examples are left out of the round trips altogether.
+# The examples of a comparison or a counting experiment, and claims without an estimate (issue 14),
+# are not written back into prose here: tests/draft/test_kinds.py drafts an invented sentence for
+# each of them and holds the draft's fields and findings against the example file.
 KINDS_NOT_DRAFTED = {"baseline", "comparison", "observed"}
 
 
