@@ -8,8 +8,10 @@ Which method gives which range (``METHOD_OF`` names it for each quantity):
   with every s_i: exact.
 - samples-weighted mean: a weighted mean with weights n, exact
   (``ranges.weighted_mean_range``).  Its error sqrt(sum n^2 s^2)/sum n rises
-  with every s_i; with exact samples that is all (exact), with samples printed
-  to a precision the samples are searched (``ranges.bounded_range``).
+  with every s_i; with exact samples that is all (exact); with samples printed
+  to a precision, exact too (``samples_error_range``: its minimum on a
+  one-parameter curve, its maximum on a vertex) up to ``ALL_VERTICES`` free
+  samples, searched beyond (``ranges.bounded_range``).
 - inverse-variance mean: a weighted mean with weights 1/s^2 in
   [1/d^2, 1/c^2], exact.  Its error 1/sqrt(sum 1/s^2) rises with every s_i:
   exact.
@@ -57,8 +59,9 @@ METHOD_OF = {
     ("equal", "estimate"): "exact: linear in the estimates",
     ("equal", "stat_error"): "exact: rises with every part error",
     ("samples", "estimate"): "exact: weighted-mean thresholds",
-    ("samples", "stat_error"): "exact with exact samples (rises with every part error); "
-                               "bounded local search over printed samples",
+    ("samples", "stat_error"): "exact: rises with every part error; over printed samples a "
+                               "one-parameter minimum and a vertex maximum (bounded local search "
+                               "beyond 12 free samples)",
     ("inverse-variance", "estimate"): "exact: weighted-mean thresholds",
     ("inverse-variance", "stat_error"): "exact: rises with every part error",
     ("random-effects", "estimate"): "bounded local search",
@@ -160,6 +163,48 @@ def evaluate(method: str, quantity: str, x: np.ndarray, s: np.ndarray | None,
     return err * np.maximum(1.0, np.sqrt(q / (k - 1)))
 
 
+def samples_error_range(s_low: np.ndarray, s_high: np.ndarray, n_low: np.ndarray,
+                        n_high: np.ndarray, vertex_limit: int = ALL_VERTICES) -> Range | None:
+    """The exact range of the samples-weighted error sqrt(sum n_i^2 s_i^2) / sum n_i over the
+    box, every n_i > 0; None for a maximum over more than ``vertex_limit`` free samples (the
+    caller then searches).  Written by hand: no library bounds a ratio like this one.
+
+    f = sum n^2 s^2 / (sum n)^2 rises with every s_i, so the errors sit at their ends.  Along
+    one n_k, with the rest fixed, f = (a n_k^2 + b)/(n_k + c)^2 falls and then rises (its
+    derivative has the sign of a c n_k - b): the maximum is at a vertex of the samples' box.
+    At the minimum the conditions for a bounded smooth minimum (df/dn_k = 2 (s_k^2 n_k S - Q)/S^3,
+    S = sum n, Q = sum n^2 s^2) put every n_k at clip(lam / s_k^2, l_k, u_k) with lam = Q/S:
+    the minimum lies on that one-parameter curve.  Between the curve's breakpoints
+    (lam = s_k^2 l_k and s_k^2 u_k) f = (C lam^2 + B)/(C lam + E)^2, smallest at lam = B/E, so
+    the breakpoints and those points hold it."""
+    v = np.asarray(s_low, float) ** 2
+    lo, hi = np.asarray(n_low, float), np.asarray(n_high, float)
+    if not (np.all(lo > 0) and np.all(np.isfinite(hi)) and np.all(v > 0)):
+        return None
+    breaks = np.unique(np.concatenate([v * lo, v * hi]))
+    lams = [breaks]
+    for a, b in zip(breaks[:-1], breaks[1:]):
+        mid = 0.5 * (a + b)
+        free = (v * lo < mid) & (mid < v * hi)
+        fixed_n = np.where(v * hi <= mid, hi, lo)[~free]
+        big_b = float(np.sum(fixed_n ** 2 * v[~free]))
+        big_e = float(np.sum(fixed_n))
+        if free.any() and big_e > 0 and a < big_b / big_e < b:
+            lams.append(np.array([big_b / big_e]))
+    lam = np.concatenate(lams)
+    n = np.clip(lam[:, None] / v[None, :], lo, hi)
+    f_min = float(np.min(np.sum(n * n * v, -1) / np.sum(n, -1) ** 2))
+    free = np.flatnonzero(hi > lo)
+    if free.size > vertex_limit:
+        return None
+    w = np.asarray(s_high, float) ** 2
+    pick = ((np.arange(2 ** free.size)[:, None] >> np.arange(free.size)) & 1).astype(bool)
+    vertices = np.tile(lo, (pick.shape[0], 1))
+    vertices[:, free] = np.where(pick, hi[free], lo[free])
+    f_max = float(np.max(np.sum(vertices ** 2 * w, -1) / np.sum(vertices, -1) ** 2))
+    return (math.sqrt(f_min), math.sqrt(f_max))
+
+
 class CombinationRanges:
     """Ranges of the combinations of one box of parts, each computed when first
     asked for (the searched ones cost far more than the closed forms)."""
@@ -232,7 +277,11 @@ class CombinationRanges:
                 p = b.n / b.n.sum()
                 return (float(np.sqrt(np.sum(p * p * b.s_low ** 2))),
                         float(np.sqrt(np.sum(p * p * b.s_high ** 2))))
-            # Rises with every s_i: the errors go to their ends and the samples are searched.
+            # Rises with every s_i: the errors go to their ends; over the samples the closed
+            # form (samples_error_range), searched only beyond its vertex limit.
+            exact = samples_error_range(b.s_low, b.s_high, b.n_low, b.n_high)
+            if exact is not None:
+                return exact
             low = self._search(lambda n: evaluate("samples", "stat_error", b.x, b.s_low, n),
                                b.n_low, b.n_high, [b.n])[0]
             high = self._search(lambda n: evaluate("samples", "stat_error", b.x, b.s_high, n),

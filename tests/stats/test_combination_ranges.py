@@ -192,3 +192,48 @@ def test_statsmodels_random_effects_reference():
     res = combine_effects(x, s ** 2, method_re="dl")
     assert evaluate("random-effects", "estimate", x, s, None)[0] == pytest.approx(res.mean_effect_re, rel=1e-10)
     assert evaluate("random-effects", "stat_error", x, s, None)[0] == pytest.approx(res.sd_eff_w_re, rel=1e-10)
+
+
+@pytest.mark.parametrize("seed", range(3))
+def test_samples_error_range_is_exact_over_printed_samples(seed):
+    # The closed form (combination_ranges.samples_error_range): every value brute force finds lies
+    # inside it (vertices and interior points), its maximum is the largest vertex, and its minimum
+    # is reached: scipy's L-BFGS-B from 20 starts over the samples' box finds nothing lower and
+    # gets within 1e-6 of it.  Every case must pass (fixed seeds).
+    from scipy.optimize import minimize
+
+    from checker.stats.combination_ranges import samples_error_range
+
+    rng = np.random.default_rng(300 + seed)
+    for case in range(25):
+        box = random_box(rng, printed_samples=True)
+        k = box.count
+        got = samples_error_range(box.s_low, box.s_high, box.n_low, box.n_high)
+        assert got is not None
+        n = np.vstack([vertices(box.n_low, box.n_high),
+                       box.n_low + rng.uniform(size=(500, k)) * (box.n_high - box.n_low)])
+        low_values = evaluate("samples", "stat_error", box.x, box.s_low, n)
+        high_values = evaluate("samples", "stat_error", box.x, box.s_high, n)
+        assert got[0] <= low_values.min() * (1 + 1e-12) and got[1] >= high_values.max() * (1 - 1e-12)
+        assert got[1] == pytest.approx(high_values[: 2 ** k].max(), rel=1e-12)  # a vertex
+
+        # Searched on the unit box and relative to the lower end, so that the optimiser's
+        # tolerances are not swamped by samples of 1e4 and errors of 1e-4.
+        def f(z):
+            n = box.n_low + z * (box.n_high - box.n_low)
+            return float(evaluate("samples", "stat_error", box.x, box.s_low, n[None, :])[0]) / got[0]
+
+        found = got[0] * min(minimize(f, rng.uniform(size=k), method="L-BFGS-B", bounds=[(0, 1)] * k,
+                                      options={"ftol": 1e-15, "gtol": 1e-12}).fun for _ in range(20))
+        assert got[0] <= found * (1 + 1e-12) and found <= got[0] * (1 + 1e-6), (seed, case, got, found)
+
+
+def test_samples_error_range_hands_many_free_samples_to_the_search():
+    from checker.stats.combination_ranges import ALL_VERTICES, samples_error_range
+
+    k = ALL_VERTICES + 1
+    ones = np.ones(k)
+    assert samples_error_range(0.1 * ones, 0.2 * ones, 100 * ones, 200 * ones) is None
+    # With the samples exact every n is fixed: no vertex to count, the range is the formula's.
+    got = samples_error_range(0.1 * ones, 0.2 * ones, 100 * ones, 100 * ones)
+    assert got == pytest.approx((0.1 / math.sqrt(k), 0.2 / math.sqrt(k)), rel=1e-12)
