@@ -1,27 +1,8 @@
 """``claimcheck plan``: the JSON contract, worked cases, unreachable targets, bad options."""
 
-import io
-import json
-
 import pytest
 
-from checker.cli import run
-
-
-def claimcheck(*argv):
-    out, err = io.StringIO(), io.StringIO()
-    status = run(list(map(str, argv)), out, err)
-    return status, out.getvalue(), err.getvalue()
-
-
-def plan_json(*argv):
-    status, out, err = claimcheck("plan", *argv, "--json")
-    assert status == 0, err
-
-    def refuse(token):
-        raise ValueError(token)
-
-    return json.loads(out, parse_constant=refuse)
+from plan_tools import claimcheck, plan_json
 
 
 def test_json_keys_follow_the_design():

@@ -4,27 +4,13 @@ stated power, and one-line refusals of options a kind cannot use."""
 
 from __future__ import annotations
 
-import io
-import json
 import math
 
 import numpy as np
 import pytest
 from scipy import stats
 
-from checker.cli import run
-
-
-def claimcheck(*argv):
-    out, err = io.StringIO(), io.StringIO()
-    status = run(list(map(str, argv)), out, err)
-    return status, out.getvalue(), err.getvalue()
-
-
-def plan_json(*argv):
-    status, out, err = claimcheck("plan", *argv, "--json")
-    assert status == 0, err
-    return json.loads(out)
+from plan_tools import claimcheck, plan_json
 
 
 UNPAIRED = ("--metric", "proportion", "--estimate", "0.913", "--baseline", "0.890", "--required-sigma", "3")
