@@ -726,7 +726,11 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
         title_guess = "the text's first sentence: shorten it to what the claim is about"
     final.insert(0, Field(("title",), title, title_quote, title_rule, title_guess, False, -1))
     # Estimate or nothing.
-    if require_estimate and not any(f.path == ("estimate",) for f in final) and metric != "counts":
+    # The kinds of claim the loader lets go without one (claim.model.ESTIMATE_OPTIONAL) go on
+    # to the loader, which has the last word.
+    without_estimate = metric == "counts" or any(f.path in (("significance", "global_sigma"),
+                                                            ("comparison", "difference")) for f in final)
+    if require_estimate and not any(f.path == ("estimate",) for f in final) and not without_estimate:
         raise DraftError(name_of(b), "prints no number that reads as the estimate",
                          "paste the sentence with the result (such as 'an accuracy of 91.3% ± 0.8%' or "
                          "'a fidelity of (2.24 ± 0.21) × 10^-3')")

@@ -27,6 +27,9 @@ ROOT = Path(__file__).resolve().parents[2]
 
 # (example file, invented sentence, the check whose findings must agree)
 CASES = [
+    ("significances_only_local_global.yaml",
+     "The invented combined search finds its largest excess at a local significance of 3.9 sigma, and a "
+     "global significance of 2.3 sigma after the look-elsewhere effect (one-sided).", "look-elsewhere"),
     ("counts_background_error_ignored.yaml",
      "The invented Marram Neutron Counter records 47 events observed over an expected background of "
      "30.2 ± 3.1: 2.9 sigma (one-sided).", "significance"),
