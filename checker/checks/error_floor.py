@@ -17,7 +17,7 @@ from typing import Iterator
 
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
-from ..stats.precision import agrees, over_box
+from ..stats.precision import agrees, error_of_the_mean, over_box
 from ..stats.ranges import sampling_error_range, scalar_range
 from ..wording import and_list, num, span_text
 from .common import fewer_samples_than_circuits, flagged_error, skipped_words, above, below, count_for_error, metric_of, model_inputs
@@ -128,7 +128,7 @@ def _sd_reading(claim: Claim, error: Reported, n: Reported, details: dict) -> Fi
     if sd is None or not n.low >= 2 or not sd.value > 0:
         return None
     tol = claim.tolerance
-    ranges = {"error of the mean": over_box(lambda s, k: s / math.sqrt(k), [sd.bounds, n.bounds]),
+    ranges = {"error of the mean": error_of_the_mean(sd.bounds, n.bounds),
               "sd": sd.bounds,
               "sd times root n": over_box(lambda s, k: s * math.sqrt(k), [sd.bounds, n.bounds])}
     matches = [name for name, r in ranges.items() if agrees(error.bounds, r, tol)]

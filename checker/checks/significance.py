@@ -27,7 +27,7 @@ from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats.binomial import binomial_variance, heavy_output_sigma
 from ..stats.interval import sigma_from_interval
-from ..stats.precision import agrees, agrees_log, over_box
+from ..stats.precision import agrees, agrees_log, error_of_the_mean, over_box
 from ..stats import student_t
 from ..stats.systematics import log_p_marginalized
 from ..stats.tails import log_p_from_sigma, sigma_from_log_p
@@ -99,7 +99,7 @@ def statistical_error(claim: Claim) -> tuple[tuple[float, float] | None, str]:
     runs = runs_of(claim)
     if runs is not None and claim.sd is not None and claim.sd.value > 0:
         # A mean over runs that prints only the runs' spread: its error is sd / sqrt(runs).
-        return over_box(lambda sd, n: sd / math.sqrt(n), [claim.sd.bounds, runs.bounds]), "sd"
+        return error_of_the_mean(claim.sd.bounds, runs.bounds), "sd"
     if claim.interval is not None:
         iv = claim.interval
         box = over_box(lambda lo, hi: sigma_from_interval(lo, hi, iv.level.value),
@@ -147,7 +147,7 @@ def recompute(claim: Claim, convention: dict) -> Recomputed | None:
         stat = over_box(lambda count: model.standard_error(t, count, inputs), [n.bounds])
     elif convention.get("error_reading") == "sd":
         # The printed stat_error read as the runs' spread: the error of the mean is it / sqrt(runs).
-        stat = over_box(lambda s, n: s / math.sqrt(n), [claim.stat_error.bounds, claim.samples.bounds])
+        stat = error_of_the_mean(claim.stat_error.bounds, claim.samples.bounds)
     else:
         stat, _ = statistical_error(claim)
         if stat is None and per_circuit(claim):

@@ -101,7 +101,7 @@ def parse_printed(text: str, exact: bool = False) -> Printed:
     if not math.isfinite(value):
         raise ValueError(f"{text} is beyond the range of double precision (about 1.8e308)")
     if exact:
-        log_value = _decimal_log(dec)
+        log_value = decimal_log(dec)
         return Printed(value, value, value, text, log_value, log_value)
     # Half a unit in the last printed digit, exactly in decimal.
     half = c.scaleb(Decimal(5), Decimal(Decimal(body).as_tuple().exponent - 1))
@@ -111,26 +111,7 @@ def parse_printed(text: str, exact: bool = False) -> Printed:
     low, high = float(lo), float(hi)
     if not (math.isfinite(low) and math.isfinite(high)):
         raise ValueError(f"{text} is beyond the range of double precision (about 1.8e308)")
-    return Printed(value, low, high, text, _decimal_log(lo), _decimal_log(hi))
-
-
-def _decimal_log(dec: Decimal) -> float:
-    """ln(dec) as the double nearest the 60-digit decimal logarithm.
-
-    First at 20 digits (five times faster: the 60-digit ln was half of building a
-    1,000-part claim): decimal's ln is correctly rounded, so the true logarithm,
-    and the 60-digit one with it, lies within half a unit of the 20-digit result's
-    last digit; when both ends of two units either side round to one double
-    (rounding is monotone), that double is the answer, else the 60-digit ln
-    decides.  tests/stats/test_precision_log.py holds the two to the same doubles."""
-    if dec > 0:
-        quick = _QUICK_CONTEXT.ln(dec)
-        unit = _CONTEXT.scaleb(Decimal(2), Decimal(quick.adjusted() - (_QUICK_CONTEXT.prec - 1)))
-        low, high = float(_CONTEXT.subtract(quick, unit)), float(_CONTEXT.add(quick, unit))
-        if low == high:
-            return low
-        return float(_CONTEXT.ln(dec))
-    return -math.inf if dec == 0 else math.nan
+    return Printed(value, low, high, text, decimal_log(lo), decimal_log(hi))
 
 
 def decimal_log_plain(dec: Decimal) -> float:
@@ -141,8 +122,28 @@ def decimal_log_plain(dec: Decimal) -> float:
 
 
 def decimal_log(dec: Decimal) -> float:
-    """ln(dec) as a double (exact decimal logarithm, rounded once); -inf at 0, nan below."""
-    return _decimal_log(dec)
+    """ln(dec) as the double nearest the 60-digit decimal logarithm; -inf at 0, nan below.
+
+    First at 20 digits (five times faster: the 60-digit ln was half of building a
+    1,000-part claim): decimal's ln is correctly rounded, so the true logarithm,
+    and the 60-digit one with it, lies within half a unit of the 20-digit result's
+    last digit; when both ends of two units either side round to one double
+    (rounding is monotone), that double is the answer, else the 60-digit ln
+    decides.  tests/stats/test_precision_log.py holds the two to the same doubles,
+    also on numbers whose logarithm lies next to a midpoint between two doubles."""
+    if dec > 0:
+        quick = _QUICK_CONTEXT.ln(dec)
+        unit = _CONTEXT.scaleb(Decimal(2), Decimal(quick.adjusted() - (_QUICK_CONTEXT.prec - 1)))
+        low, high = float(_CONTEXT.subtract(quick, unit)), float(_CONTEXT.add(quick, unit))
+        if low == high:
+            return low
+    return decimal_log_plain(dec)
+
+
+def error_of_the_mean(spread: tuple[float, float], runs: tuple[float, float]) -> tuple[float, float]:
+    """The range of sd / sqrt(n), the error of a mean over n runs of spread sd, over the
+    printed intervals of both (rises with sd, falls with n: :func:`over_box` is exact)."""
+    return over_box(lambda sd, n: sd / math.sqrt(n), [spread, runs])
 
 
 def count_is_exact(text: str) -> bool:
