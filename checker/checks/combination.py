@@ -23,8 +23,8 @@ from typing import Iterator
 from ..claim.model import Claim, Reported
 from ..report import Finding, Shown, Span
 from ..stats.precision import agrees
-from .parts_summary import (METHOD_WORDS, VARIANT_WORDS, PartsSummary, methods_details, parts_summary,
-                            printed_combination, value_text)
+from .parts_summary import (METHOD_WORDS, VARIANT_WORDS, PartsSummary, RangeOption, methods_details,
+                            parts_summary, printed_combination, value_text)
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 ORDER = ("equal", "samples", "inverse-variance", "random-effects", "paule-mandel")
@@ -33,35 +33,36 @@ SLIPS = ("average", "quadrature")
 
 
 def _error_options(summary: PartsSummary, method: str, slips: bool):
-    """(variant, range, value) the printed error may match under ``method``: its
-    own error, then the accepted variants, then (with ``slips``) the slips."""
+    """(variant, range option, value) the printed error may match under ``method``:
+    its own error, then the accepted variants, then (with ``slips``) the slips."""
     r = summary.methods[method]
     options = []
-    if r.stat_error_range is not None:
-        options.append((None, r.stat_error_range, r.stat_error))
+    if r.stat_error is not None:
+        options.append((None, RangeOption(r, "stat_error"), r.stat_error))
     if method == "equal" and "spread" in summary.variants:
-        options.append(("spread", summary.variants["spread"][1], summary.variants["spread"][0]))
+        options.append(("spread", RangeOption(fixed=summary.variants["spread"][1]), summary.variants["spread"][0]))
     het = summary.heterogeneity
-    if (method == "inverse-variance" and r.scaled_error_range is not None
+    if (method == "inverse-variance" and r.scaled_error is not None
             and het is not None and het.scale_factor > 1.0):
-        options.append(("scaled", r.scaled_error_range, r.scaled_error))
+        options.append(("scaled", RangeOption(r, "scaled_error"), r.scaled_error))
     if slips and method in ("equal", "samples", "inverse-variance"):
         for name in SLIPS:
             if name in summary.variants:
-                options.append((name, summary.variants[name][1], summary.variants[name][0]))
+                options.append((name, RangeOption(fixed=summary.variants[name][1]), summary.variants[name][0]))
     return options
 
 
 def _match(summary, method, est: Reported | None, err: Reported | None, tol, slips=False):
     """(method, variant, error value) when the printed values agree under
-    ``method``; None when they do not."""
+    ``method``; None when they do not.  Only agreement is asked, so a searched
+    range is computed only where its cheaper bounds leave the answer open."""
     r = summary.methods[method]
-    if est is not None and not agrees(est.bounds, r.estimate_range, tol):
+    if est is not None and not r.agrees("estimate", est.bounds, tol):
         return None
     if err is None:
         return (method, None, r.stat_error)
-    for variant, rng, value in _error_options(summary, method, slips):
-        if agrees(err.bounds, rng, tol):
+    for variant, option, value in _error_options(summary, method, slips):
+        if option.agrees(err.bounds, tol):
             return (method, variant, value)
     return None
 
@@ -217,9 +218,9 @@ def _about(summary: PartsSummary, method: str, est: Reported | None, err: Report
     ``method`` and the printed error is what does not (or only the error is
     printed)."""
     r = summary.methods[method]
-    on_error = err is not None and (est is None or (agrees(est.bounds, r.estimate_range, tol)
+    on_error = err is not None and (est is None or (r.agrees("estimate", est.bounds, tol)
                                                     and r.stat_error_range is not None
-                                                    and not agrees(err.bounds, r.stat_error_range, tol)))
+                                                    and not r.agrees("stat_error", err.bounds, tol)))
     rep, value, rng = (err, r.stat_error, r.stat_error_range) if on_error else (est, r.estimate, r.estimate_range)
     about = {"field": rep.path, "statement": "combined", "printed": Shown.of(rep),
              "recomputed_range": _span(rng), "tolerance": tol}

@@ -24,7 +24,7 @@ from ..claim.model import Claim
 from ..report import Finding, Shown, Span
 from ..stats.precision import agrees
 from ..wording import num, p_text
-from .parts_summary import METHOD_WORDS, parts_summary, printed_combination, value_text
+from .parts_summary import METHOD_WORDS, RangeOption, parts_summary, printed_combination, value_text
 from .spec import ABOUT_THE_CLAIM, CheckSpec, Statement
 
 P_LIMIT = 0.01
@@ -69,17 +69,17 @@ def check(claim: Claim) -> Iterator[Finding]:
         return
 
     # The parts disagree: which errors allow for the scatter?
-    allowing = []  # (words, value, range)
+    allowing = []  # (words, value, range option): the searched ranges computed only for the one shown
     if base is not None and base.scaled_error_range is not None:
         allowing.append((f"{METHOD_WORDS[base_method]}'s error scaled by S = {s:.3g}", base.scaled_error,
-                         base.scaled_error_range))
+                         RangeOption(fixed=base.scaled_error_range)))
     for method in ("random-effects", "paule-mandel"):
         r = summary.methods.get(method)
-        if r is not None and r.stat_error_range is not None:
-            allowing.append((f"the error of {METHOD_WORDS[method]}", r.stat_error, r.stat_error_range))
+        if r is not None and r.stat_error is not None:
+            allowing.append((f"the error of {METHOD_WORDS[method]}", r.stat_error, RangeOption(r, "stat_error")))
     if "spread" in summary.variants:
         value, rng = summary.variants["spread"]
-        allowing.append(("the error from the parts' scatter", value, rng))
+        allowing.append(("the error from the parts' scatter", value, RangeOption(fixed=rng)))
     re_fit = summary.methods.get("random-effects")
     suggestion = (f"scaled by S = {s:.3g} it would be {value_text(scaled, err)}"
                   + (f", and a random-effects fit gives {value_text(re_fit.stat_error, err)}"
@@ -97,12 +97,12 @@ def check(claim: Claim) -> Iterator[Finding]:
     about = {"field": err.path, "printed": Shown.of(err), "tolerance": tol,
              "recomputed_range": Span(*base.scaled_error_range) if base is not None and base.scaled_error_range
              else None}
-    for words, value, rng in allowing:
-        if agrees(err.bounds, rng, tol):
+    for words, value, option in allowing:
+        if option.agrees(err.bounds, tol):
             yield Finding("pass", f"The parts disagree ({stats_text}), and the printed combined error "
                           f"{err.text} allows for it: it is {words} ({value_text(value, err)}).",
                           reported=err.value, recomputed=value, details=details, statement="scatter_allowed",
-                          **{**about, "recomputed_range": Span(*rng)})
+                          **{**about, "recomputed_range": Span(*option.range)})
             return
     plain = next((m for m in ("inverse-variance", "samples", "equal")
                   if m in summary.methods and summary.methods[m].stat_error_range is not None

@@ -24,6 +24,7 @@ from ..claim.model import Claim, Reported
 from ..stats.combination_ranges import CombinationRanges, PartsBox
 from ..stats.combine import COMBINATION_METHODS, combine, spread_error
 from ..stats.heterogeneity import Heterogeneity, cochran_q, heterogeneity, log_p_chi2, scale_factor
+from ..stats.precision import agrees
 from ..vocabulary import COMBINATION_MEANS as METHOD_WORDS  # noqa: F401  (the checks read it here)
 from ..wording import like
 from .common import metric_of, model_inputs
@@ -71,6 +72,14 @@ class MethodResult:
     def scaled_error_range(self) -> Range | None:
         return None if self.scaled_error is None else _range(self.engine.range(self.method, "scaled_error"))
 
+    def agrees(self, quantity: str, bounds: tuple[float, float], tolerance: float) -> bool:
+        """``precision.agrees(bounds, <quantity>_range, tolerance)``, False where that
+        range is None; the engine answers from cheaper bounds where they settle it,
+        so a check that only asks need not pay for a searched range."""
+        if quantity != "estimate" and getattr(self, quantity) is None:
+            return False
+        return self.engine.agrees(self.method, quantity, bounds, tolerance)
+
 
 @dataclass(frozen=True)
 class PartsSummary:
@@ -83,6 +92,28 @@ class PartsSummary:
     heterogeneity: Heterogeneity | None
     log_p_q_high: float | None  # the largest log p_Q over printed precision
     q_range: Range | None
+
+
+@dataclass(frozen=True)
+class RangeOption:
+    """A range a printed number may fall in: asked whether a print agrees, it is
+    answered without the full range where cheaper bounds settle it; ``range``
+    is the full range (for showing)."""
+
+    result: MethodResult | None = None
+    quantity: str = ""
+    fixed: Range | None = None
+
+    def agrees(self, bounds: tuple[float, float], tolerance: float) -> bool:
+        if self.result is not None:
+            return self.result.agrees(self.quantity, bounds, tolerance)
+        return self.fixed is not None and agrees(bounds, self.fixed, tolerance)
+
+    @property
+    def range(self) -> Range | None:
+        if self.result is not None:
+            return getattr(self.result, f"{self.quantity}_range")
+        return self.fixed
 
 
 def _error_count(claim: Claim, part) -> Reported | None:

@@ -48,6 +48,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from .combine import tau2_paule_mandel
+from .precision import agrees
 from .ranges import Range, weighted_ss_max, weighted_ss_min, bounded_range, weighted_mean_range, weighted_ss_range
 
 ALL_VERTICES = 12  # free inputs up to which every vertex is a starting candidate
@@ -94,6 +95,16 @@ class PartsBox:
     @property
     def count(self) -> int:
         return int(self.x.size)
+
+
+def _meets(bounds: tuple[float, float], r: Range | None, tolerance: float) -> bool:
+    """``precision.agrees`` against a range that may be missing or not finite (never met)."""
+    return r is not None and all(math.isfinite(v) for v in r) and agrees(bounds, r, tolerance)
+
+
+def _widened(r: Range) -> Range:
+    """A range opened by 1e-9 of each end: room for the rounding of the values it bounds."""
+    return (r[0] - 1e-9 * abs(r[0]), r[1] + 1e-9 * abs(r[1]))
 
 
 def _pm_tau2(x: np.ndarray, v: np.ndarray) -> np.ndarray:
@@ -258,6 +269,119 @@ class CombinationRanges:
             return None
         return self._cached((method, quantity), lambda: self._compute(method, quantity))
 
+    # --- agreement with a print, from cheaper bounds where they settle it --------------------------
+    def agrees(self, method: str, quantity: str, bounds: tuple[float, float], tolerance: float) -> bool:
+        """Whether a printed interval agrees (``precision.agrees``) with the range of
+        ``quantity`` of ``method``: always the answer the full range gives, False where
+        that range is missing or not finite.
+
+        A searched range (random-effects, Paule-Mandel, every Birge-scaled error) is
+        only computed when neither of two cheaper ranges settles the question: one
+        that holds it (``outer_range``: a print apart from it is apart from the
+        searched range) and one it holds (the search's own candidates, whose values
+        it keeps: a print that meets them meets it).  Checks that only ask whether
+        a method reproduces a print then skip the searches."""
+        key = (method, quantity)
+        if key in self._cache or not self._is_searched(method, quantity):
+            return _meets(bounds, self.range(method, quantity), tolerance)
+        if self.range_inputs_missing(method, quantity):
+            return False
+        outer = self._cached(("outer",) + key, lambda: self.outer_range(method, quantity))
+        if outer is not None and not agrees(bounds, outer, tolerance):
+            return False
+        inner = self._cached(("inner",) + key, lambda: self._searched(method, quantity, candidates_only=True))
+        if all(math.isfinite(v) for v in inner) and agrees(bounds, inner, tolerance):
+            return True
+        return _meets(bounds, self.range(method, quantity), tolerance)
+
+    def range_inputs_missing(self, method: str, quantity: str) -> bool:
+        """The conditions under which ``range`` is None."""
+        b = self.box
+        return ((b.s is None and (quantity != "estimate" or method not in ("equal", "samples")))
+                or (method == "samples" and b.n is None))
+
+    def _is_searched(self, method: str, quantity: str) -> bool:
+        return quantity == "scaled_error" or method in ("random-effects", "paule-mandel")
+
+    def tau2_bounds(self, method: str) -> Range:
+        """Bounds on the between-part variance over the box (errors needed).
+
+        DerSimonian-Laird: tau^2 = max(0, (Q - (K - 1)) / D), D = W - sum w^2 / W.
+        Q lies in ``q()``; D rises with every weight (dD/dw_k = ((W - w_k)^2 +
+        sum_{i != k} w_i^2) / W^2 >= 0), so it lies between its values at the
+        smallest and the largest weights.
+        Paule-Mandel: tau^2 is the root of Q_gen(t) = K - 1, Q_gen(t) = min over mu of
+        sum (x_i - mu)^2 / (v_i + t), which falls with t and rises with every weight;
+        over the box it is largest where the largest Q_gen over the estimates
+        (``weighted_ss_max`` at weights 1/(v_low + t)) meets K - 1 and smallest where
+        the smallest (``weighted_ss_min`` at 1/(v_high + t)) does.  Bisection keeps
+        the side of each root that bounds it; Q_gen(t) <= SS/t (SS the plain scatter)
+        puts the upper end of the bracket at max SS / (K - 1).  Written by hand: no
+        library bounds a root over a box."""
+        b = self.box
+        k = b.count
+        v_lo, v_hi = b.s_low ** 2, b.s_high ** 2
+        if method == "random-effects":
+            q_lo, q_hi = self.q()
+
+            def denom(w):
+                total = w.sum()
+                return total - float(np.dot(w, w)) / total
+
+            d_lo, d_hi = denom(1.0 / v_hi), denom(1.0 / v_lo)
+            t_lo = max(0.0, (q_lo - (k - 1)) / d_hi) if d_hi > 0 else 0.0
+            t_hi = max(0.0, (q_hi - (k - 1)) / d_lo) if d_lo > 0 else math.inf
+            return (t_lo * (1 - 1e-9), t_hi * (1 + 1e-9))
+        ones = np.ones(k)
+        top = weighted_ss_max(b.x_low, b.x_high, ones) / (k - 1)
+
+        def root_side(excess, upper: bool) -> float:
+            lo, hi = 0.0, top
+            if excess(0.0) <= 0:
+                return 0.0
+            for _ in range(24):  # to 6e-8 of the bracket: the bound need not be tight
+                mid = 0.5 * (lo + hi)
+                if excess(mid) > 0:
+                    lo = mid
+                else:
+                    hi = mid
+            return hi if upper else lo
+
+        t_hi = root_side(lambda t: weighted_ss_max(b.x_low, b.x_high, 1.0 / (v_lo + t)) - (k - 1), True)
+        t_lo = root_side(lambda t: weighted_ss_min(b.x_low, b.x_high, 1.0 / (v_hi + t)) - (k - 1), False)
+        return (t_lo * (1 - 1e-9), t_hi * (1 + 1e-9) + 1e-300)
+
+    def outer_range(self, method: str, quantity: str) -> Range | None:
+        """A range that holds the searched one (every value the search can reach),
+        from closed forms; None where there is none.  The weights 1/(v_i + tau^2) lie
+        in [1/(v_high + tau^2_high), 1/(v_low + tau^2_low)] (``tau2_bounds``), so the
+        random-effects means lie in the exact range of a weighted mean with weights
+        in those intervals (``weighted_mean_range``) and their error
+        1/sqrt(sum w_i) between its values at the two ends.  A Birge-scaled error is
+        the error times max(1, sqrt(Q/(K - 1))), each factor within its own range."""
+        b = self.box
+        k = b.count
+        if b.s is None:
+            return None
+        if quantity == "scaled_error":
+            if method in ("random-effects", "paule-mandel"):
+                err = self.outer_range(method, "stat_error")
+            else:
+                err = self.range(method, "stat_error")
+            if err is None or not all(math.isfinite(v) for v in err):
+                return None
+            q_lo, q_hi = self.q()
+            f_lo = max(1.0, math.sqrt(max(q_lo, 0.0) / (k - 1)))
+            f_hi = max(1.0, math.sqrt(q_hi / (k - 1)))
+            return _widened((err[0] * f_lo, err[1] * f_hi))
+        t_lo, t_hi = self.tau2_bounds(method)
+        v_lo, v_hi = b.s_low ** 2, b.s_high ** 2
+        if quantity == "estimate":
+            return _widened(weighted_mean_range(b.x_low, b.x_high, 1.0 / (v_hi + t_hi), 1.0 / (v_lo + t_lo)))
+        with np.errstate(divide="ignore"):
+            return _widened((float(1.0 / np.sqrt(np.sum(1.0 / (v_lo + t_lo)))),
+                             float(1.0 / np.sqrt(np.sum(1.0 / (v_hi + t_hi))))))
+
     def _compute(self, method: str, quantity: str) -> Range:
         b = self.box
         k = b.count
@@ -319,7 +443,7 @@ class CombinationRanges:
             err = math.sqrt(np.sum(p * p * v))
         return err * max(1.0, math.sqrt(max(q, 0.0) / (k - 1)))
 
-    def _searched_through_q(self, method: str, quantity: str) -> Range:
+    def _searched_through_q(self, method: str, quantity: str, candidates_only: bool = False) -> Range:
         """Over the estimates the quantity's extremes are those of Q, exact for every set of
         errors (``ranges.weighted_ss_range``); the errors alone are then searched."""
         b = self.box
@@ -338,13 +462,13 @@ class CombinationRanges:
         starts = [b.s, b.s_low, b.s_high]
         # Each point costs an exact Q range, so the search stops at fewer inputs.
         limit = SEARCH_LIMIT // 2
-        low = self._search(side("min"), b.s_low, b.s_high, starts, PART_VERTICES, limit)[0]
-        high = self._search(side("max"), b.s_low, b.s_high, starts, PART_VERTICES, limit)[1]
+        low = self._search(side("min"), b.s_low, b.s_high, starts, PART_VERTICES, limit, candidates_only)[0]
+        high = self._search(side("max"), b.s_low, b.s_high, starts, PART_VERTICES, limit, candidates_only)[1]
         return (low, high)
 
-    def _searched(self, method: str, quantity: str) -> Range:
+    def _searched(self, method: str, quantity: str, candidates_only: bool = False) -> Range:
         if self._through_q(method, quantity):
-            return self._searched_through_q(method, quantity)
+            return self._searched_through_q(method, quantity, candidates_only)
         b = self.box
         k = b.count
         with_n = method == "samples" and not np.array_equal(b.n_low, b.n_high)
@@ -385,7 +509,7 @@ class CombinationRanges:
         for s in ss:
             for x in (together, apart):
                 starts.append(np.concatenate([x, s] + extra))
-        return self._search(fn, low, high, starts)
+        return self._search(fn, low, high, starts, candidates_only=candidates_only)
 
     @staticmethod
     def _climb(fn_rows, low, high, free, start, sign, rounds: int = 50):
@@ -413,9 +537,11 @@ class CombinationRanges:
 
     @staticmethod
     def _search(fn_rows, low, high, starts, vertex_limit: int = ALL_VERTICES,
-                search_limit: int = SEARCH_LIMIT) -> Range:
+                search_limit: int = SEARCH_LIMIT, candidates_only: bool = False) -> Range:
         """Candidates (the starts and, for small boxes, every vertex) evaluated in
-        one batch; a bounded local search from the best two in each direction."""
+        one batch; a bounded local search from the best two in each direction.
+        With ``candidates_only`` the candidates' own range, which the search's
+        range always holds (every candidate's value is among those it keeps)."""
         low, high = np.asarray(low, float), np.asarray(high, float)
         free = np.flatnonzero(high > low)
         candidates = [np.asarray(s, float) for s in starts]
@@ -430,7 +556,7 @@ class CombinationRanges:
         ok = np.isfinite(values)
         if not ok.any():
             return (math.nan, math.nan)
-        if free.size > search_limit:
+        if free.size > search_limit or candidates_only:
             # Many parts: the candidates alone (README, "Printed precision").
             return (float(values[ok].min()), float(values[ok].max()))
         lowest = [rows[i] for i in np.argsort(np.where(ok, values, np.inf))[:CLIMBS] if ok[i]]
