@@ -150,9 +150,9 @@ def _method_finding(claim: Claim, tol: float, asymmetric: bool) -> Finding:
         """(distance from the print, interval to show) for one method: the
         best single whole count, or the continuous box."""
         if counts is not None:
-            options = proportion_intervals(counts, n_value, lev, m)
-            best = min(options, key=off_by)
-            return off_by(best), best
+            # (distance, interval) per count; min keeps the first of equals, as min by key did.
+            return min(((off_by(b), b) for b in proportion_intervals(counts, n_value, lev, m)),
+                       key=lambda pair: pair[0])
         lo_rng, hi_rng = _continuous(claim, m, lev)
         off = max(gap(iv.low.bounds, lo_rng), gap(iv.high.bounds, hi_rng))
         p = min(max(claim.estimate.value, 0.0), 1.0)

@@ -330,3 +330,28 @@ def test_the_c_loader_reads_every_example_like_the_pure_python_one(monkeypatch):
             except Exception as exc:  # noqa: BLE001 - the two loaders must refuse alike too
                 outcomes.append((type(exc).__name__, str(exc)))
         assert outcomes[0] == outcomes[1], text
+
+
+def test_json_line_numbers_from_events_equal_those_from_composed_nodes():
+    # The quick map (parser events) against the reference (composed nodes) on every example claim
+    # as JSON, indented and on one line, and on texts at the edges of the two YAML readings.
+    import glob
+    import json
+
+    from checker.claim.load import _json_lines, json_lines_composed, load_document
+
+    texts = []
+    for name in sorted(glob.glob("claims_examples/*.yaml") + glob.glob("claims_examples/*.json")):
+        try:
+            data = load_document(name).data
+        except Exception:  # noqa: BLE001 - an example that is refused on purpose has no JSON to make
+            continue
+        texts += [json.dumps(data), json.dumps(data, indent=2), json.dumps(data, indent="\t"),
+                  json.dumps(data, indent=1).replace("\n", "\r\n")]
+    texts += ['{"a": [1, [2, [3, {"b": []}]], {}], "c": {"d": {"e": null}}}', '[]', '{}', '"x"', '3',
+              '{"emoji": "\\ud83d\\ude00", "slash": "a\\/b"}', '{"lone": "\\ud800"}',
+              '{"' + "k" * 1100 + '": 1, "b": 2}', '{"a":\t1,\n\t"b": [\n1,\n2]}',
+              '{"a": "line\u2028sep", "b": 2}', '{"a": 1}\n\n', '\ufeff{"a": 1}']
+    assert len(texts) > 60
+    for text in texts:
+        assert _json_lines(text) == json_lines_composed(text), text[:80]

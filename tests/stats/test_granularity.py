@@ -93,3 +93,48 @@ def test_a_count_exactly_representable_beyond_two_to_the_53():
     units = 2**60 + 1
     g = granularity(*interval("8.67e-19"), units, 0, units)
     assert g.possible and g.counts[0] == 1
+
+
+# The quick paths in doubles against the exact fractions they stand in for
+# (exact_round_plain, step_wider_plain): every printed bound of a grid of printed
+# numbers times every denominator up to 3,000, products next to whole numbers
+# (k / units and its neighbouring doubles), huge and subnormal sizes.
+def _bounds_grid():
+    from checker.stats.precision import parse_printed
+
+    texts = [f"{v:.{d}f}" for d in (1, 2, 3, 4) for v in (0.005, 0.0345, 0.1, 0.125, 0.345, 0.5, 0.91, 0.9115)]
+    texts += ["91.2%", "2.24e-3", "1e-300", "5e-324", "0", "1", "0.999999999"]
+    out = []
+    for t in texts:
+        p = parse_printed(t)
+        out += [p.low, p.high, p.value]
+    return out
+
+
+def test_quick_rounding_equals_the_exact_fractions_on_a_grid():
+    import math
+
+    from checker.stats.granularity import exact_round, exact_round_plain, step_wider, step_wider_plain
+
+    bounds = _bounds_grid()
+    for units in list(range(1, 400)) + [1000, 1250, 2999, 10 ** 6, 10 ** 15, 2 ** 53 + 1, 10 ** 300]:
+        for b in bounds:
+            for up in (True, False):
+                assert exact_round(b, units, up) == exact_round_plain(b, units, up), (b, units, up)
+        for k in (1, 3, 7, units // 3, units - 1):
+            edge = k / units
+            for b in (edge, math.nextafter(edge, 0), math.nextafter(edge, 1), -edge):
+                for up in (True, False):
+                    assert exact_round(b, units, up) == exact_round_plain(b, units, up), (b, units, up)
+        for i, low in enumerate(bounds):
+            for high in bounds[i:i + 6] + [low, low + 1.0 / units, math.nextafter(low + 1.0 / units, 2)]:
+                if high >= low:
+                    assert step_wider(low, high, units) == step_wider_plain(low, high, units), (low, high, units)
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.floats(-1e6, 1e6, allow_nan=False), st.integers(1, 10 ** 18), st.booleans())
+def test_quick_rounding_equals_the_exact_fractions(bound, units, up):
+    from checker.stats.granularity import exact_round, exact_round_plain
+
+    assert exact_round(bound, units, up) == exact_round_plain(bound, units, up)
