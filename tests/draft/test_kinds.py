@@ -33,6 +33,9 @@ CASES = [
     ("counts_background_error_ignored.yaml",
      "The invented Marram Neutron Counter records 47 events observed over an expected background of "
      "30.2 ± 3.1: 2.9 sigma (one-sided).", "significance"),
+    ("counts_background_error_ignored.yaml",
+     "The invented Marram Neutron Counter records 47 events observed over an expected background of "
+     "30.2 (uncertainty 3.1): 2.9 sigma (one-sided).", "significance"),
     ("counts_naive_s_over_root_b.yaml",
      "The invented Kestrel Underground Array observes 47 events over an expected background of 30.2, "
      "a 3.06σ excess (one-sided).", "significance"),
