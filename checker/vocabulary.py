@@ -4,8 +4,9 @@ methods.  The terminal text, the JSON messages, the Markdown notes, the HTML
 pages and the batch summary all read them from here, so a status or a method
 is called the same everywhere.
 
-A leaf module: it imports nothing of ours but :mod:`checker.visible`.  How
-numbers are written lives beside it, in :mod:`checker.wording`.
+A leaf module: it imports nothing of ours but :mod:`checker.visible` and,
+for a number inside a phrase, :func:`checker.wording.num` (how numbers are
+written lives beside it, in :mod:`checker.wording`, itself a leaf).
 """
 
 from __future__ import annotations
@@ -13,6 +14,7 @@ from __future__ import annotations
 from typing import Any, Mapping
 
 from .visible import visible
+from .wording import num
 
 # --- statuses and verdicts ------------------------------------------------------
 
@@ -74,6 +76,8 @@ RESAMPLING_NAMES = {"circuits": "whole circuits resampled", "binned": "samples r
                     "binomial": "binomial draws of the heavy count"}
 
 # Conventions briefly, as a check's message names the one it used: "one-sided, statistical error only".
+# Student's t names its degrees of freedom where they are known ("on 9 degrees of freedom").
+_STUDENT_T = "Student's t{on}, its p given as the equivalent normal sigma"
 _CONVENTION_BRIEF = {
     ("sided", "one"): "one-sided", ("sided", "two"): "two-sided",
     ("systematics", "none"): "statistical error only",
@@ -84,16 +88,24 @@ _CONVENTION_BRIEF = {
     ("error_at", "threshold"): "error taken at the threshold",
     ("method", "sidak"): "the Sidak correction", ("method", "bonferroni"): "the Bonferroni bound",
     ("method", "gross-vitells"): "the Gross-Vitells correction", ("method", "none"): "no correction",
-    ("distribution", "t"): "Student's t, its p given as the equivalent normal sigma",
+    ("distribution", "t"): _STUDENT_T.format(on=""),
     ("distribution", "normal"): "the normal distribution",
     ("error_reading", "error of the mean"): "the printed error as the error of the mean",
     ("error_reading", "sd"): "the printed error as the runs' sd (error of the mean = it / sqrt(runs))",
 }
 
 
-def convention_text(conv: Mapping[str, Any]) -> str:
-    """A convention briefly: ``{"sided": "two"}`` -> "two-sided"."""
-    return ", ".join(_CONVENTION_BRIEF.get((k, v), f"{k} {v}") for k, v in conv.items())
+def convention_text(conv: Mapping[str, Any], degrees_of_freedom: float | None = None) -> str:
+    """A convention briefly: ``{"sided": "two"}`` -> "two-sided"; with
+    ``degrees_of_freedom``, Student's t names them: ``{"distribution": "t"}``, 9
+    -> "Student's t on 9 degrees of freedom, its p given as the equivalent
+    normal sigma"."""
+    def brief(key: str, value: Any) -> str:
+        if degrees_of_freedom is not None and (key, value) == ("distribution", "t"):
+            return _STUDENT_T.format(on=f" on {num(degrees_of_freedom)} degrees of freedom")
+        return _CONVENTION_BRIEF.get((key, value), f"{key} {value}")
+
+    return ", ".join(brief(k, v) for k, v in conv.items())
 
 
 # Conventions and methods as a phrase that reads after "computed" or "would follow".

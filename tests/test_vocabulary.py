@@ -29,6 +29,16 @@ def test_convention_text():
     assert convention_text({"method": "none"}) == "no correction"
 
 
+def test_convention_text_names_students_degrees_of_freedom_when_given():
+    t = {"sided": "one", "distribution": "t"}
+    assert convention_text(t) == "one-sided, Student's t, its p given as the equivalent normal sigma"
+    assert convention_text(t, 9) == \
+        "one-sided, Student's t on 9 degrees of freedom, its p given as the equivalent normal sigma"
+    assert "on 2 degrees" in convention_text(t, 2.0)
+    # Degrees of freedom name only Student's t: a normal reference is unchanged by them.
+    assert convention_text({"distribution": "normal"}, 9) == "the normal distribution"
+
+
 @pytest.mark.parametrize("conv, words", [
     ({"sided": "two"}, "under the two-sided convention (both tails)"),
     ({"systematics": "quadrature"}, "with the systematic error added in quadrature"),

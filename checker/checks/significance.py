@@ -554,12 +554,10 @@ def _against_recomputed(claim: Claim, tol: float) -> Iterator[Finding]:
     # A stated treatment of a systematic error that is not printed adds nothing: say what was
     # used (the statistical error alone), not the stated treatment, and note the gap.
     unprinted = stated["systematics"] != "none" and claim.syst_error is None
-    conv_words = convention_text({**stated, "systematics": "none"} if unprinted else stated)
+    degrees = claim.samples.value - 1 if stated.get("distribution") == "t" else None
+    conv_words = convention_text({**stated, "systematics": "none"} if unprinted else stated, degrees)
     if unprinted:
         conv_words += f"; the claim states systematics: {stated['systematics']} but prints no syst_error"
-    if "distribution" in stated and stated["distribution"] == "t":
-        conv_words = conv_words.replace("Student's t", f"Student's t on {num(claim.samples.value - 1)} degrees of "
-                                        "freedom", 1)
     # With few runs the t is not a convention but the distribution of the statistic, and the
     # printed error is the error of the mean: a print that follows only otherwise is flagged.
     stated_keys = set(sig.stated) | ({"distribution"} if few_runs(claim) else set()) \

@@ -648,12 +648,22 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
         elif role == "threshold_zero":
             if ("threshold",) not in have and metric != "counts":
                 add(("threshold",), value, quote, rule, "printed in words (zero)")
-    # Sigma and p go with the comparison only when there is a baseline.
+    # Sigma and p go with the comparison only when there is a baseline, or a difference printed
+    # without one (a difference-only comparison: its sigma is the difference's, comparison.sigma).
     baseline = ("baseline", "estimate") in have
+    compared = baseline or ("comparison", "difference") in have
     moved = []
     for f in fields + extra:
-        if f.path[0] == "comparison" and f.path[1] in ("sigma", "p_value") and not baseline:
+        if f.path[0] == "comparison" and f.path[1] in ("sigma", "p_value") and not compared:
             moved.append((f, ("significance", f.path[1])))
+    # A difference printed without a baseline, and no threshold (nor a counting experiment or a
+    # look-elsewhere) for a significance to be measured from: a sigma or p printed in a sentence
+    # of its own ("This is significant at 2.8σ") is the difference's.
+    if compared and not baseline and metric != "counts" and not any(
+            p == ("threshold",) or p in (("significance", "global_sigma"), ("significance", "upcrossings"))
+            or p == ("trials",) for p in have):
+        moved += [(f, ("comparison", f.path[1])) for f in fields + extra
+                  if f.path[0] == "significance" and f.path[1] in ("sigma", "p_value")]
     for f, path in moved:
         target = fields if f in fields else extra
         if path in have:
@@ -666,7 +676,7 @@ def _resolve(b: _Builder, text_rules: dict, text: str, sentences, results, requi
     for role, value, quote, rule, comparison in b.deferred:
         if role != "sided":
             continue
-        group = "comparison" if (comparison and baseline) or (baseline and not any(
+        group = "comparison" if (comparison and compared) or (compared and not any(
             p[0] == "significance" and p[1] in ("sigma", "p_value") for p in have)) else "significance"
         add((group, "sided"), value, quote, rule)
     # A difference printed in points: percentage points when the two results are percentages.

@@ -91,6 +91,13 @@ _LABEL_WORDS = (r"stat(?:istical|\.)?|syst(?:ematic|\.)?|sys|s\.d\.|sd|std|s\.e\
                 r"|total|tot")
 _LABEL = re.compile(rf"\s*\(\s*({_LABEL_WORDS})\.?\s*\)|\s*_?\s*({_LABEL_WORDS})(?![\w])\.?", re.I)
 _CONCISE = re.compile(r"\((\d+(?:\.\d+)?)\)")
+# A value's error named in words in brackets: 30.2 (uncertainty 3.1), 0.913 (statistical error 0.008),
+# 12.6 (± 0.4); the bracket must close right after the error.
+_WORDED_ERROR = re.compile(
+    r"\s*\(\s*(?:(?:(stat(?:istical)?|syst(?:ematic)?|standard)\.?\s+)?(?:uncertainty|error|unc\.)"
+    r"\s*(?:of\s+|is\s+|=\s*|:\s*)?|±\s*)(?=[\d.])", re.I)
+_WORDED_LABELS = {"stat": "stat", "statistical": "stat", "syst": "syst", "systematic": "syst", "standard": "sem"}
+_WORDED_CLOSE = re.compile(r"\s*\)")
 _ASYMMETRIC = (
     re.compile(rf"\s*\^\s*\+\s*({_MANTISSA})\s*_\s*-\s*({_MANTISSA})"),
     re.compile(rf"\s*_\s*-\s*({_MANTISSA})\s*\^\s*\+\s*({_MANTISSA})"),
@@ -274,6 +281,16 @@ def _measurement_after(text: str, v: _Value, start: int) -> Mention | None:
             pct = v.percent or bool(percent)
             return Mention("measurement", start, end, value=number(v.mantissa, exponent, pct),
                            plus=number(plus, exponent, pct), minus=number(minus, exponent, pct))
+    # x (uncertainty y): one error, named in words in brackets.
+    m = _WORDED_ERROR.match(text, v.end)
+    if m:
+        e = _read_value(text, m.end())
+        close = _WORDED_CLOSE.match(text, e.end) if e is not None else None
+        if close:
+            values = _share([v, e], notes)
+            label = _WORDED_LABELS.get((m.group(1) or "").lower(), "")
+            return Mention("measurement", start, close.end(), value=_number(values[0]),
+                           errors=((_number(values[1]), label),), notes=tuple(notes))
     # x ± y [label] [± z [label]], with a shared exponent or percent sign.
     values = [v]
     labels = []

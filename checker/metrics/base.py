@@ -9,6 +9,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from ..stats.elementwise import at_least_zero
 from ..stats.porter_thomas import variance_of_mean
 
 
@@ -48,11 +49,13 @@ class MetricModel:
 
     def within_variance(self, value: float, inputs: ModelInputs) -> float | None:
         """Expected per-sample variance inside one circuit, v - B (the law of
-        total variance); what one circuit's own samples scatter by."""
+        total variance); what one circuit's own samples scatter by.  The xeb
+        models take an array of values too, elementwise, bit for bit the loop
+        over its elements (``raw`` reads every circuit's this way)."""
         v = self.variance(value, inputs)
         if v is None:
             return None
-        return max(0.0, v - self.circuit_variance(value, inputs))
+        return at_least_zero(v - self.circuit_variance(value, inputs))
 
     def standard_error(self, value: float, n: float, inputs: ModelInputs) -> float | None:
         """sqrt(v / N + B (1/K - 1/N)) with K = ``inputs.circuits``; sqrt(v / N)

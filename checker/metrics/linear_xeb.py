@@ -12,6 +12,7 @@ References
 S. Boixo et al., Nature Physics 14, 595 (2018), arXiv:1608.00263.
 """
 
+from ..stats.elementwise import clip_unit
 from ..stats.porter_thomas import fidelity_from_linear_xeb, linear_xeb_circuit_variance, linear_xeb_variance
 from .base import MetricModel, ModelInputs
 
@@ -20,7 +21,7 @@ def _fidelity(value: float, inputs: ModelInputs) -> float:
     # The printed value is mean(x) - 1, which at finite D is F (D - 1)/(D + 1).
     # The mixture is a distribution only for F in [0, 1]; a noisy negative
     # estimate stands for F near 0 (1 + 2F - F^2 would even turn negative).
-    return min(max(fidelity_from_linear_xeb(value, inputs.dimension), 0.0), 1.0)
+    return clip_unit(fidelity_from_linear_xeb(value, inputs.dimension))
 
 
 class LinearXEB(MetricModel):

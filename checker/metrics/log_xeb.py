@@ -12,6 +12,7 @@ References
 S. Boixo et al., Nature Physics 14, 595 (2018), arXiv:1608.00263.
 """
 
+from ..stats.elementwise import clip_unit
 from ..stats.porter_thomas import fidelity_from_log_xeb, log_xeb_circuit_variance, log_xeb_variance_finite
 from .base import MetricModel, ModelInputs
 
@@ -19,7 +20,7 @@ from .base import MetricModel, ModelInputs
 def _fidelity(value: float, inputs: ModelInputs) -> float:
     # At finite D the expected estimate is u + F (i - u) (offsets u -> 0, i -> 1);
     # the mixture needs F in [0, 1].
-    return min(max(fidelity_from_log_xeb(value, inputs.dimension), 0.0), 1.0)
+    return clip_unit(fidelity_from_log_xeb(value, inputs.dimension))
 
 
 class LogXEB(MetricModel):

@@ -9,39 +9,30 @@ seconds) and held them all (about 100 MB of small objects).  Here every
 estimate is an element of an array and a row's objects are made when asked
 for, so the text report (which shows 12 rows) never makes the others.
 
-Every operation below repeats the plain path's, in the same order and on the
-same IEEE doubles (``+ - * /`` and ``sqrt`` round the same in numpy as in
-Python), so each number is bit for bit the one the plain path gives; where the
-plain path uses Python's ``max``/``min`` the arrays use the comparisons that
-choose the same operand (NaN and -0.0 included), and its one ``x ** 2`` of a
-Python float is taken with Python's own power.  tests/raw/test_circuit_table.py
-holds the two paths equal on random and edge-case sums.
+The model variances are the metric models' own formulas, called once with
+the array of estimates (they are written elementwise with
+:mod:`checker.stats.elementwise`).  Every other operation below repeats the
+plain path's, in the same order and on the same IEEE doubles (``+ - * /`` and
+``sqrt`` round the same in numpy as in Python), so each number is bit for bit
+the one the plain path gives; where the plain path uses Python's ``max``/``min``
+the arrays use the comparisons that choose the same operand (NaN and -0.0
+included).  tests/raw/test_circuit_table.py holds the two paths equal on random
+and edge-case sums.
 """
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 from collections.abc import Sequence
 from typing import Iterator
 
 import numpy as np
 
+from ..metrics import METRICS, ModelInputs
+from ..stats.elementwise import clip_unit
 from ..stats.fidelity_fit import finite_dimension_factor
-from ..stats.porter_thomas import (EULER_GAMMA, EXACT_LOG_DIMENSION, LOG_XEB_VARIANCE_IDEAL_ZERO, dimension_of,
-                                   log_xeb_moments, log_xeb_offsets)
+from ..stats.porter_thomas import EULER_GAMMA, dimension_of, log_xeb_offsets
 from .estimators import MetricEstimate, Sums, circuit_estimates
-
-
-def _py_max0(x: np.ndarray) -> np.ndarray:
-    """Python's max(0.0, x) elementwise: x when x > 0.0, else 0.0 (NaN and -0.0 give 0.0)."""
-    return np.where(x > 0.0, x, 0.0)
-
-
-def _py_clip01(x: np.ndarray) -> np.ndarray:
-    """Python's min(max(x, 0.0), 1.0): max keeps x unless 0.0 > x; min keeps it unless 1.0 < it."""
-    y = np.where(x < 0.0, 0.0, x)
-    return np.where(y > 1.0, 1.0, y)
 
 
 def _py_max_x0(x: np.ndarray) -> np.ndarray:
@@ -57,55 +48,9 @@ def _sample_sd(n: np.ndarray, s: np.ndarray, s2: np.ndarray) -> np.ndarray:
     return np.where(n < 2, np.nan, sd)
 
 
-def _linear_variances(est: np.ndarray, dim) -> np.ndarray:
-    """LinearXEB.within_variance(est): max(0, v - B) at F = clip(F(est))."""
-    if dim is None or math.isinf(dim):
-        f = _py_clip01(est)
-        v = _py_max0(1.0 + 2.0 * f - f * f)
-        return _py_max0(v - 0.0)
-    d = float(dim)
-    f = _py_clip01(est * (d + 1.0) / (d - 1.0))
-    m_uniform_1, m_uniform_2 = 1.0, 2.0 * d / (d + 1.0)
-    m_ideal_1, m_ideal_2 = 2.0 * d / (d + 1.0), 6.0 * d * d / ((d + 1.0) * (d + 2.0))
-    mean = f * m_ideal_1 + (1.0 - f) * m_uniform_1
-    second = f * m_ideal_2 + (1.0 - f) * m_uniform_2
-    v = _py_max0(second - mean * mean)
-    b = 4.0 * f * f * d * d * (d - 1.0) / ((d + 1.0) ** 2 * (d + 2.0) * (d + 3.0))
-    return _py_max0(v - b)
-
-
-def _python_square(x: np.ndarray) -> np.ndarray:
-    """x ** 2 with Python's float power (libm pow), as the plain path takes it."""
-    return np.array([v ** 2 for v in x.tolist()], dtype=float)
-
-
-def _log_variances(est: np.ndarray, dim) -> np.ndarray:
-    """LogXEB.within_variance(est): max(0, v - B) at F = clip(F(est))."""
-    u, i = log_xeb_offsets(dim)
-    f = _py_clip01((est - u) / (i - u))
-    if dim is None or math.isinf(dim) or dim > EXACT_LOG_DIMENSION:
-        v = _py_max0(LOG_XEB_VARIANCE_IDEAL_ZERO - f * f)
-    else:
-        d = float(dim)
-        mo = log_xeb_moments(d)
-        mean = f * d * mo["py"] + (1.0 - f) * mo["y"]
-        second = f * d * mo["py2"] + (1.0 - f) * mo["y2"]
-        v = _py_max0(second - mean * mean)
-    if dim is None or math.isinf(dim):
-        b = 0.0
-    elif dim > EXACT_LOG_DIMENSION:
-        d = float(dim)
-        z2 = math.pi ** 2 / 6.0
-        b = _py_max0((z2 - 1.0 - 2.0 * f + z2 * f * f) / d)
-    else:
-        d = float(dim)
-        mo = log_xeb_moments(d)
-        mean_a, mean_u = d * mo["py"], mo["y"]
-        var_a = d * mo["p2y2"] + d * (d - 1.0) * mo["ppyy"] - mean_a * mean_a
-        var_u = mo["y2"] / d + (d - 1.0) / d * mo["yy"] - mean_u * mean_u
-        cov = mo["py2"] + (d - 1.0) * mo["pyy"] - mean_a * mean_u
-        b = _py_max0(f * f * var_a + _python_square(1.0 - f) * var_u + 2.0 * f * (1.0 - f) * cov)
-    return _py_max0(v - b)
+def _within_variances(metric: str, est: np.ndarray, dim) -> np.ndarray:
+    """The metric model's own within_variance(est), elementwise over the circuits: one formula for both paths."""
+    return METRICS[metric].within_variance(est, ModelInputs(dimension=dim))
 
 
 def _errors(n, s, s2, est, within_var):
@@ -186,14 +131,14 @@ def circuit_table(sums: Sums, labels) -> Sequence:
     columns, order = {}, ["linear-xeb"]
     with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
         est = sums.sum_x / n - 1.0
-        model, data, ratio = _errors(n, sums.sum_x, sums.sum_x2, est, _linear_variances(est, dim))
+        model, data, ratio = _errors(n, sums.sum_x, sums.sum_x2, est, _within_variances("linear-xeb", est, dim))
         factor = finite_dimension_factor(dim)
         columns["linear-xeb"] = {"estimate": est, "model": model, "data": data, "ratio": ratio,
                                  "extra": {"fidelity_finite_d": est / factor, "finite_d_factor": factor}}
         if sums.sum_l is not None:
             order.append("log-xeb")
             est = sums.sum_l / n + EULER_GAMMA
-            model, data, ratio = _errors(n, sums.sum_l, sums.sum_l2, est, _log_variances(est, dim))
+            model, data, ratio = _errors(n, sums.sum_l, sums.sum_l2, est, _within_variances("log-xeb", est, dim))
             u, i = log_xeb_offsets(dim)
             columns["log-xeb"] = {"estimate": est, "model": model, "data": data, "ratio": ratio,
                                   "zeros": np.asarray(sums.zeros), "extra": {"fidelity_finite_d": (est - u) / (i - u)}}
@@ -202,7 +147,7 @@ def circuit_table(sums: Sums, labels) -> Sequence:
             hn = np.asarray(sums.heavy_n, dtype=float)
             has = hn > 0
             h = sums.heavy_sum / hn
-            p = _py_clip01(h)
+            p = clip_unit(h)
             var = p * (1.0 - p)
             model = np.sqrt(var / hn)
             sd = _sample_sd(hn, sums.heavy_sum, sums.heavy_sum)

@@ -14,6 +14,12 @@ References
 S. Boixo et al., "Characterizing quantum supremacy in near-term devices",
 Nature Physics 14, 595 (2018), arXiv:1608.00263, sections on cross-entropy
 benchmarking and Porter-Thomas statistics.
+
+The fidelity (or estimate) given to the variance functions may be a float or a
+numpy array: an array is taken elementwise by the float's operations in the
+same order (``checker.stats.elementwise`` for max and the square), so the
+per-circuit table of ``raw`` and the metric models share one formula and agree
+bit for bit.
 """
 
 from __future__ import annotations
@@ -21,6 +27,8 @@ from __future__ import annotations
 import math
 from functools import lru_cache
 from types import MappingProxyType
+
+from .elementwise import at_least_zero, python_square
 
 EULER_GAMMA = 0.5772156649015329
 LOG_XEB_VARIANCE_IDEAL_ZERO = math.pi ** 2 / 6.0
@@ -42,13 +50,13 @@ def linear_xeb_moments(fidelity: float, dimension: float | None = None) -> tuple
     """
     f = fidelity
     if dimension is None or math.isinf(dimension):
-        return 1.0 + f, max(0.0, 1.0 + 2.0 * f - f * f)  # negative below F = 1 - sqrt(2)
+        return 1.0 + f, at_least_zero(1.0 + 2.0 * f - f * f)  # negative below F = 1 - sqrt(2)
     d = float(dimension)
     m_uniform_1, m_uniform_2 = 1.0, 2.0 * d / (d + 1.0)
     m_ideal_1, m_ideal_2 = 2.0 * d / (d + 1.0), 6.0 * d * d / ((d + 1.0) * (d + 2.0))
     mean = f * m_ideal_1 + (1.0 - f) * m_uniform_1
     second = f * m_ideal_2 + (1.0 - f) * m_uniform_2
-    return mean, max(0.0, second - mean * mean)
+    return mean, at_least_zero(second - mean * mean)
 
 
 def fidelity_from_linear_xeb(estimate: float, dimension: float | None = None) -> float:
@@ -70,7 +78,7 @@ def linear_xeb_variance(fidelity: float, dimension: float | None = None) -> floa
 
 def log_xeb_variance(fidelity: float) -> float:
     """Per-sample variance of ln x + gamma under the mixture, large-D limit."""
-    return max(0.0, LOG_XEB_VARIANCE_IDEAL_ZERO - fidelity * fidelity)
+    return at_least_zero(LOG_XEB_VARIANCE_IDEAL_ZERO - fidelity * fidelity)
 
 
 def dimension_of(qubits: int | None) -> float | None:
@@ -253,7 +261,7 @@ def log_xeb_variance_finite(fidelity: float, dimension: float | None) -> float:
     mo = log_xeb_moments(d)
     mean = f * d * mo["py"] + (1.0 - f) * mo["y"]
     second = f * d * mo["py2"] + (1.0 - f) * mo["y2"]
-    return max(0.0, second - mean * mean)
+    return at_least_zero(second - mean * mean)
 
 
 def log_xeb_circuit_variance(fidelity: float, dimension: float | None) -> float:
@@ -268,13 +276,13 @@ def log_xeb_circuit_variance(fidelity: float, dimension: float | None) -> float:
     f = fidelity
     if d > EXACT_LOG_DIMENSION:
         z2 = math.pi ** 2 / 6.0
-        return max(0.0, (z2 - 1.0 - 2.0 * f + z2 * f * f) / d)
+        return at_least_zero((z2 - 1.0 - 2.0 * f + z2 * f * f) / d)
     mo = log_xeb_moments(d)
     mean_a, mean_u = d * mo["py"], mo["y"]
     var_a = d * mo["p2y2"] + d * (d - 1.0) * mo["ppyy"] - mean_a * mean_a
     var_u = mo["y2"] / d + (d - 1.0) / d * mo["yy"] - mean_u * mean_u
     cov = mo["py2"] + (d - 1.0) * mo["pyy"] - mean_a * mean_u
-    return max(0.0, f * f * var_a + (1.0 - f) ** 2 * var_u + 2.0 * f * (1.0 - f) * cov)
+    return at_least_zero(f * f * var_a + python_square(1.0 - f) * var_u + 2.0 * f * (1.0 - f) * cov)
 
 
 def variance_of_mean(per_sample: float, between: float, samples: float,

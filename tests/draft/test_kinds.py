@@ -33,6 +33,9 @@ CASES = [
     ("counts_background_error_ignored.yaml",
      "The invented Marram Neutron Counter records 47 events observed over an expected background of "
      "30.2 ± 3.1: 2.9 sigma (one-sided).", "significance"),
+    ("counts_background_error_ignored.yaml",
+     "The invented Marram Neutron Counter records 47 events observed over an expected background of "
+     "30.2 (uncertainty 3.1): 2.9 sigma (one-sided).", "significance"),
     ("counts_naive_s_over_root_b.yaml",
      "The invented Kestrel Underground Array observes 47 events over an expected background of 30.2, "
      "a 3.06σ excess (one-sided).", "significance"),
@@ -96,3 +99,37 @@ def test_drafted_kind_gives_the_example_findings(name, sentence, check):
     drafted = claim_from_document(doc)
     want = _findings(example, check)
     assert want and want == _findings(drafted, check), text
+
+
+# A difference printed with its sigma and no estimate (nor baseline): the sigma is the difference's,
+# comparison.sigma, whether printed in the difference's sentence or in one of its own. Invented
+# sentences; the hand-written claim is what a person would write from them.
+DIFFERENCE_ONLY = """title: invented Larkspur parser against the previous best
+metric: mean
+comparison:
+  difference: 0.023
+  difference_error: 0.0081
+  sigma: 2.8
+{more}  sided: one
+"""
+
+
+@pytest.mark.parametrize("sentence, more", [
+    ("The invented Larkspur parser beats the previous best by a difference of 0.023 ± 0.0081, significant "
+     "at 2.8σ (one-sided).", ""),
+    ("The invented Larkspur parser improves on the previous best by 0.023 ± 0.0081. This is significant at "
+     "2.8σ (p = 0.0026, one-sided).", "  p_value: 0.0026\n"),
+])
+def test_a_difference_only_comparison_keeps_its_sigma(sentence, more):
+    _, text, doc = _draft(sentence)
+    got = flat(doc)
+    assert got["comparison.sigma"] == "2.8" and "significance.sigma" not in got, text
+    assert not any(key.startswith("significance.") for key in got), text
+    hand_doc = parse_text(DIFFERENCE_ONLY.format(more=more), "hand.yaml", "yaml")
+    assert {k: v for k, v in got.items() if k != "title"} == {k: v for k, v in flat(hand_doc).items() if k != "title"}
+    drafted, hand = claim_from_document(doc), claim_from_document(hand_doc)
+
+    def findings(claim):
+        return [(f.check, f.status, f.statement, f.message, repr(f.reproduced_by)) for f in run_checks(claim).findings]
+
+    assert findings(drafted) == findings(hand)

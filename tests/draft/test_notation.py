@@ -45,6 +45,14 @@ def one(text):
     ("\u22120.12 \u00b1 0.05", "-0.12", [("0.05", "")]),
     ("0.00730 ± 0.000183", "0.00730", [("0.000183", "")]),
     ("2.24 ± 0.21 × 10^-3", "2.24e-3", [("0.21e-3", "")]),
+    # The error named in words in brackets.
+    ("30.2 (uncertainty 3.1)", "30.2", [("3.1", "")]),
+    ("30.2 (uncertainty of 3.1)", "30.2", [("3.1", "")]),
+    ("0.913 (statistical error 0.008)", "0.913", [("0.008", "stat")]),
+    ("0.913 (standard error: 0.008)", "0.913", [("0.008", "sem")]),
+    ("0.0018 (systematic uncertainty 0.0003)", "0.0018", [("0.0003", "syst")]),
+    ("91.3% (error 0.8%)", "91.3%", [("0.8%", "")]),
+    ("12.6 (± 0.4)", "12.6", [("0.4", "")]),
 ])
 def test_measurements(text, value, errors):
     m = one(text)
@@ -138,3 +146,9 @@ def test_a_sentence_end_is_not_part_of_a_number():
 def test_limit_bounds_the_work():
     text = " ".join(str(i) for i in range(1000))
     assert len(find_mentions(text, limit=10)) == 10
+
+
+def test_words_in_brackets_that_do_not_close_on_the_error_are_no_error():
+    # "30.2 (uncertainty 3.1 from the sidebands)" leaves the bracket open: two numbers, as before.
+    assert [m.kind for m in read("30.2 (uncertainty 3.1 from the sidebands)")] == ["value", "value"]
+    assert [m.kind for m in read("30.2 (error rate 0.01)")] == ["value", "value"]
