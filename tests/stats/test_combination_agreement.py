@@ -2,7 +2,7 @@
 
 For the searched ranges (random-effects and Paule-Mandel means and errors, the Birge-scaled
 errors) the engine first asks a range that holds the searched one (``outer_range``, from closed
-forms) and one the search holds (its own candidates).  Here, on seeded random boxes of 2 to 7
+forms) and one the search holds (its own candidates).  Here, on seeded random boxes of 2 to 8
 parts printed to one to three digits:
 
 - the outer range holds the full range and every value found by brute force (every vertex of
@@ -24,27 +24,12 @@ import pytest
 from checker.stats.combination_ranges import CombinationRanges, PartsBox, evaluate
 from checker.stats.combine import tau2_paule_mandel
 from checker.stats.heterogeneity import cochran_q, dersimonian_laird_tau2
-from checker.stats.precision import agrees, parse_printed
+from checker.stats.precision import agrees
+from box_tools import random_box  # the differential test's boxes
 
 SEARCHED = [("random-effects", "estimate"), ("random-effects", "stat_error"), ("paule-mandel", "estimate"),
             ("paule-mandel", "stat_error"), ("inverse-variance", "scaled_error"), ("equal", "scaled_error"),
             ("random-effects", "scaled_error")]
-
-
-def printed(value: float, digits: int):
-    return parse_printed(f"{value:.{digits - 1}e}")
-
-
-def random_box(rng) -> PartsBox:
-    k = int(rng.integers(2, 8))
-    scale = 10.0 ** rng.uniform(-4, 0)
-    errors = scale * rng.uniform(0.3, 2.0, k)
-    values = scale * rng.uniform(1, 20) + rng.normal(0, 1, k) * errors * rng.uniform(0.3, 3)
-    xs = [printed(v, int(rng.integers(1, 4))) for v in values]
-    ss = [printed(e, int(rng.integers(1, 4))) for e in errors]
-    col = lambda reps, attr: np.array([getattr(r, attr) for r in reps])  # noqa: E731
-    return PartsBox(col(xs, "value"), col(xs, "low"), col(xs, "high"), col(ss, "value"), col(ss, "low"),
-                    col(ss, "high"))
 
 
 def brute_points(box: PartsBox, rng) -> tuple[np.ndarray, np.ndarray]:
@@ -112,5 +97,5 @@ def test_agrees_gives_the_full_ranges_answer_and_mostly_without_the_search():
                         (method, quantity, bounds, full, tol)
                     asked += 1
                     settled += (method, quantity) not in engine._cache
-    # Measured with these seeds: 2,928 of 3,360 (87%) are settled without the search.
+    # Measured with these seeds: 2,833 of 3,360 (84%) are settled without the search.
     assert settled > 0.6 * asked, (settled, asked)
