@@ -262,10 +262,7 @@ class CombinationRanges:
     def range(self, method: str, quantity: str) -> Range | None:
         """The range of ``quantity`` of ``method``; None when the method lacks an
         input (errors, samples)."""
-        b = self.box
-        if b.s is None and (quantity != "estimate" or method not in ("equal", "samples")):
-            return None
-        if method == "samples" and b.n is None:
+        if self._inputs_missing(method, quantity):
             return None
         return self._cached((method, quantity), lambda: self._compute(method, quantity))
 
@@ -282,26 +279,32 @@ class CombinationRanges:
         it keeps: a print that meets them meets it).  Checks that only ask whether
         a method reproduces a print then skip the searches."""
         key = (method, quantity)
-        if key in self._cache or not self._is_searched(method, quantity):
+        searched = quantity == "scaled_error" or method in ("random-effects", "paule-mandel")
+        if key in self._cache or not searched or self._inputs_missing(method, quantity):
             return _meets(bounds, self.range(method, quantity), tolerance)
-        if self.range_inputs_missing(method, quantity):
-            return False
         outer = self._cached(("outer",) + key, lambda: self.outer_range(method, quantity))
         if outer is not None and not agrees(bounds, outer, tolerance):
             return False
-        inner = self._cached(("inner",) + key, lambda: self._searched(method, quantity, candidates_only=True))
+        inner = self.candidate_range(method, quantity)
         if all(math.isfinite(v) for v in inner) and agrees(bounds, inner, tolerance):
             return True
         return _meets(bounds, self.range(method, quantity), tolerance)
 
-    def range_inputs_missing(self, method: str, quantity: str) -> bool:
-        """The conditions under which ``range`` is None."""
+    def candidate_range(self, method: str, quantity: str) -> Range:
+        """The range of a searched quantity over the search's own starting points
+        (no local search): the searched range holds it."""
+        return self._cached(("inner", method, quantity),
+                            lambda: self._searched(method, quantity, candidates_only=True))
+
+    def computed(self, method: str, quantity: str) -> bool:
+        """Whether the full range of ``quantity`` of ``method`` has been computed."""
+        return (method, quantity) in self._cache
+
+    def _inputs_missing(self, method: str, quantity: str) -> bool:
+        """The method lacks an input (errors, samples): ``range`` is None."""
         b = self.box
         return ((b.s is None and (quantity != "estimate" or method not in ("equal", "samples")))
                 or (method == "samples" and b.n is None))
-
-    def _is_searched(self, method: str, quantity: str) -> bool:
-        return quantity == "scaled_error" or method in ("random-effects", "paule-mandel")
 
     def tau2_bounds(self, method: str) -> Range:
         """Bounds on the between-part variance over the box (errors needed).
